@@ -1,0 +1,114 @@
+/**
+ * The worker's face: thin calls into src/core, nothing computed here.
+ * Parsed spectra are kept in a small LRU cache by file key so that the
+ * review loop (refit, name a line, measure lines) never re-reads a file.
+ * Typed arrays going back to the page are copies handed over with
+ * Comlink.transfer, so the cached originals stay intact.
+ */
+import { transfer } from 'comlink';
+import type { FitResult, LineMeasurement, Spectrum, SpectrumClass } from '../core/types';
+import { SpectrumReadError } from '../core/types';
+import { fitBytes } from '../core/pipeline';
+import { readSpectrum } from '../core/io/readSpectrum';
+import { refitNear } from '../core/engine';
+import { locateFeature, suggestLines, type LineSuggestion } from '../core/engine/identify';
+import { measureLines } from '../core/engine/measureLines';
+import { LruCache } from './lruCache';
+
+/** A spectrum as sent to the page for drawing (same fields as Spectrum). */
+export type SpectrumPayload = Spectrum;
+
+/** What `openSpectrum` answers. */
+export type OpenAnswer =
+  | { kind: 'spectrum'; spectrum: SpectrumPayload }
+  | { kind: 'need-bytes' }
+  | { kind: 'read-error'; message: string };
+
+/** A feature found near a click, with the catalogue lines it could be, best first. */
+export interface FeatureAnswer {
+  feature: { centreA: number; centreErrA: number; kind: 'emission' | 'absorption'; snr: number; fwhmA: number } | null;
+  suggestions: LineSuggestion[];
+}
+
+export interface FitWorkerApi {
+  /** Read and fit one file's bytes (never throws; failures come back as status 'failed'). */
+  fitFile(bytes: Uint8Array, file: string): FitResult;
+  /** Parse a file for display; without bytes, answers from the cache or asks for them. */
+  openSpectrum(key: string, file: string, bytes: Uint8Array | null): OpenAnswer;
+  /** Best solution near a redshift the reviewer chose; null when the spectrum is not open. */
+  refitNear(key: string, zCentre: number): FitResult | null;
+  /** Locate the feature nearest an observed wavelength (Angstrom) and list the lines it could be. */
+  nameFeature(key: string, clickA: number): FeatureAnswer | null;
+  /** Gaussian line measurements at a redshift and class; null when the spectrum is not open. */
+  measureLines(key: string, z: number, cls: SpectrumClass): LineMeasurement[] | null;
+}
+
+/** Parsed spectra kept per worker (a few MB at most for 20,000-pixel spectra). */
+export const SPECTRUM_CACHE_ENTRIES = 8;
+
+/** Buffers of every typed array a FitResult carries, so they move rather than copy. */
+export function fitResultBuffers(result: FitResult): ArrayBuffer[] {
+  const out: ArrayBuffer[] = [];
+  for (const c of result.curves) {
+    out.push(c.z.buffer as ArrayBuffer, c.deltaChi2.buffer as ArrayBuffer);
+  }
+  return out;
+}
+
+function copyForTransfer(s: Spectrum): Spectrum {
+  const copy: Spectrum = {
+    file: s.file,
+    format: s.format,
+    wavelengthA: s.wavelengthA.slice(),
+    flux: s.flux.slice(),
+    ivar: s.ivar ? s.ivar.slice() : null,
+    mask: s.mask.slice(),
+    meta: { ...s.meta },
+  };
+  const buffers = [copy.wavelengthA.buffer, copy.flux.buffer, copy.mask.buffer] as ArrayBuffer[];
+  if (copy.ivar) buffers.push(copy.ivar.buffer as ArrayBuffer);
+  return transfer(copy, buffers);
+}
+
+export function createFitWorkerApi(cacheEntries = SPECTRUM_CACHE_ENTRIES): FitWorkerApi & { cache: LruCache<string, Spectrum> } {
+  const cache = new LruCache<string, Spectrum>(cacheEntries);
+  return {
+    cache,
+    fitFile(bytes, file) {
+      const result = fitBytes(bytes, file);
+      return transfer(result, fitResultBuffers(result));
+    },
+    openSpectrum(key, file, bytes) {
+      let spectrum = cache.get(key);
+      if (!spectrum) {
+        if (!bytes) return { kind: 'need-bytes' };
+        try {
+          spectrum = readSpectrum(bytes, file);
+        } catch (e) {
+          const message = e instanceof SpectrumReadError ? e.message : `${file}: internal reader error: ${(e as Error)?.message ?? e}`;
+          return { kind: 'read-error', message };
+        }
+        cache.set(key, spectrum);
+      }
+      return { kind: 'spectrum', spectrum: copyForTransfer(spectrum) };
+    },
+    refitNear(key, zCentre) {
+      const spectrum = cache.get(key);
+      if (!spectrum) return null;
+      const result = refitNear(spectrum, zCentre);
+      return transfer(result, fitResultBuffers(result));
+    },
+    nameFeature(key, clickA) {
+      const spectrum = cache.get(key);
+      if (!spectrum) return null;
+      const feature = locateFeature(spectrum, clickA);
+      if (!feature) return { feature: null, suggestions: [] };
+      return { feature, suggestions: suggestLines(spectrum, feature.centreA, feature.kind) };
+    },
+    measureLines(key, z, cls) {
+      const spectrum = cache.get(key);
+      if (!spectrum) return null;
+      return measureLines(spectrum, z, cls);
+    },
+  };
+}

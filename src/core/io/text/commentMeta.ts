@@ -1,0 +1,139 @@
+/**
+ * Facts carried in comment lines of a text spectrum, written as `key: value`
+ * or `key = value` (e.g. `# object: X`, `# ra: 150.1`, `# wavelength: air, nm`,
+ * `# columns: wavelength flux ivar`).
+ */
+import type { SpectrumMeta } from '../../types';
+import { nameTokens, wavelengthWords, stripQuotes, type WavelengthWords } from './columnNames';
+
+export interface CommentLine {
+  /** 1-based line number. */
+  line: number;
+  /** Text after the comment character, trimmed. */
+  body: string;
+}
+
+/** A wavelength statement and the line it came from. */
+export interface StatedWavelength extends WavelengthWords {
+  line: number;
+}
+
+export interface CommentFacts {
+  meta: SpectrumMeta;
+  wavelength: StatedWavelength[];
+  /** A `columns: ...` line: column names given in a comment. */
+  columns?: { line: number; names: string };
+}
+
+/** A problem in a comment, for the reader to raise with its file name. */
+export class CommentError extends Error {
+  constructor(
+    readonly line: number,
+    readonly key: string,
+    readonly reason: string,
+  ) {
+    super(reason);
+  }
+}
+
+type MetaKey = 'objectId' | 'raDeg' | 'decDeg' | 'exposureS' | 'dateObs' | 'instrument' | 'fluxUnit';
+
+const META_KEYS: Record<string, MetaKey> = {
+  object: 'objectId', objid: 'objectId', obj_id: 'objectId', object_id: 'objectId', objname: 'objectId',
+  object_name: 'objectId', name: 'objectId', target: 'objectId', target_id: 'objectId', targetid: 'objectId', id: 'objectId',
+  ra: 'raDeg', ra_deg: 'raDeg', raj2000: 'raDeg', ra_j2000: 'raDeg', right_ascension: 'raDeg',
+  dec: 'decDeg', dec_deg: 'decDeg', dej2000: 'decDeg', decj2000: 'decDeg', dec_j2000: 'decDeg', declination: 'decDeg',
+  exptime: 'exposureS', exposure: 'exposureS', exp_time: 'exposureS', exposure_time: 'exposureS', exposure_s: 'exposureS', texp: 'exposureS',
+  date_obs: 'dateObs', dateobs: 'dateObs', date: 'dateObs', obs_date: 'dateObs', observation_date: 'dateObs',
+  instrument: 'instrument', instrume: 'instrument', spectrograph: 'instrument',
+  flux_unit: 'fluxUnit', flux_units: 'fluxUnit', fluxunit: 'fluxUnit', bunit: 'fluxUnit', funit: 'fluxUnit',
+};
+
+/** Keys whose value states the wavelength unit, medium or scale. */
+const WAVELENGTH_KEYS = new Set([
+  'wavelength', 'wavelengths', 'wave', 'lambda', 'wavelength_unit', 'wavelength_units', 'wave_unit', 'wunit',
+  'lambda_unit', 'waveunit', 'wavelength_medium', 'medium', 'air_vacuum', 'air_or_vacuum', 'vacuum_or_air', 'airorvac',
+  'wavelength_scale', 'wavelength_frame',
+]);
+const COLUMN_KEYS = new Set(['columns', 'column_names', 'cols', 'fields']);
+/** Values that mean "not known": the key is skipped, not an error. */
+const UNKNOWN = /^(?:|n\/?a|none|unknown|-+|\?)$/i;
+
+const KEY_VALUE = /^([A-Za-z][A-Za-z0-9_ .\-]{0,40}?)\s*[:=]\s*(.*)$/;
+
+/** Collect metadata and wavelength statements; throws CommentError on a value that cannot be read. */
+export function readCommentFacts(comments: readonly CommentLine[]): CommentFacts {
+  const facts: CommentFacts = { meta: {}, wavelength: [] };
+  for (const c of comments) {
+    const m = KEY_VALUE.exec(c.body);
+    if (!m) continue;
+    const key = m[1].trim().toLowerCase().replace(/[^a-z0-9]+/g, '_');
+    // FITS-style `KEY = 'value' / comment`: drop the trailing comment, then the quotes.
+    let value = m[2].trim();
+    if (/^'.*'\s*\/.*$/.test(value)) value = value.replace(/\s*\/[^']*$/, '');
+    value = stripQuotes(value.trim()).trim();
+    if (WAVELENGTH_KEYS.has(key)) {
+      const words = wavelengthWords(nameTokens(value));
+      if (words === 'conflict') throw new CommentError(c.line, key, `wavelength statement '${value}' contradicts itself`);
+      if (words.unit || words.medium || words.scale) facts.wavelength.push({ line: c.line, ...words });
+      continue;
+    }
+    if (COLUMN_KEYS.has(key)) {
+      facts.columns = { line: c.line, names: value };
+      continue;
+    }
+    const target = META_KEYS[key];
+    if (!target || UNKNOWN.test(value)) continue;
+    if (facts.meta[target] !== undefined) continue; // the first statement wins
+    setMeta(facts.meta, target, value, c.line, key);
+  }
+  return facts;
+}
+
+function setMeta(meta: SpectrumMeta, target: MetaKey, value: string, line: number, key: string): void {
+  switch (target) {
+    case 'raDeg':
+    case 'decDeg': {
+      const deg = parseAngleDeg(value, target === 'raDeg');
+      if (deg === undefined) {
+        const what = target === 'raDeg' ? 'right ascension (degrees 0-360 or h:m:s)' : 'declination (degrees -90..90 or d:m:s)';
+        throw new CommentError(line, key, `'${value}' is not a ${what}`);
+      }
+      meta[target] = deg;
+      return;
+    }
+    case 'exposureS': {
+      const m = /^([+]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(?:s|sec|secs|seconds?)?$/.exec(value);
+      if (!m) throw new CommentError(line, key, `'${value}' is not an exposure time in seconds`);
+      meta.exposureS = Number(m[1]);
+      return;
+    }
+    default:
+      meta[target] = value;
+  }
+}
+
+/**
+ * An angle in degrees from decimal degrees ('150.1', '150.1 deg') or sexagesimal
+ * ('10:00:24.0', '10 00 24', '10h00m24s' for right ascension in hours;
+ * '-02:12:00', '-2d12m00s' for declination). Out-of-range values give undefined.
+ */
+export function parseAngleDeg(value: string, isRa: boolean): number | undefined {
+  const v = value.trim().toLowerCase();
+  const decimal = /^([+-]?(?:\d+\.?\d*|\.\d+))\s*(?:d|deg|degrees?)?$/.exec(v);
+  let deg: number;
+  if (decimal) deg = Number(decimal[1]);
+  else {
+    const sexa = /^([+-]?)(\d{1,3})\s*[:hd ]\s*(\d{1,2})\s*[:m' ]\s*(\d{1,2}(?:\.\d*)?)\s*(?:s|")?$/.exec(v);
+    if (!sexa) return undefined;
+    const [, sign, a, b, c] = sexa;
+    const mm = Number(b);
+    const ss = Number(c);
+    if (mm >= 60 || ss >= 60) return undefined;
+    const x = Number(a) + mm / 60 + ss / 3600;
+    deg = (sign === '-' ? -1 : 1) * (isRa ? 15 * x : x);
+  }
+  if (!Number.isFinite(deg)) return undefined;
+  if (isRa ? deg < 0 || deg >= 360 : deg < -90 || deg > 90) return undefined;
+  return deg;
+}

@@ -275,7 +275,11 @@ export function fitGaussLine(
   let chi2 = chi2Of(pts, p, xRef);
   if (!Number.isFinite(chi2)) return failed('non-finite chi-square at the start', fromArray(p), xRef, n, 0);
   let { h, g } = normalEquations(pts, p, xRef);
+  // Damping update of Nielsen (1999, IMM-REP-1999-05, Tech. Univ. Denmark):
+  // lambda follows the gain ratio rho = actual / predicted chi2 decrease, which
+  // stops the zig-zag of plain x10 / /10 updates in flat, curved valleys.
   let lambda = 1e-3;
+  let nu = 2;
   let iterations = 0;
   let converged = false;
 
@@ -284,35 +288,62 @@ export function fitGaussLine(
     // Marquardt (1963): scale the damping by the diagonal of J^T W J.
     const a = Float64Array.from(h);
     for (let k = 0; k < NP; k++) a[k * NP + k] = h[k * NP + k] * (1 + lambda) + 1e-300;
+    // Active set: a parameter on its bound whose downhill direction points out
+    // of the box is held fixed for this step, so the others are solved without it.
+    const rhs = Float64Array.from(g);
+    for (let k = 0; k < NP; k++) {
+      if ((p[k] <= lo[k] && g[k] < 0) || (p[k] >= hi[k] && g[k] > 0)) {
+        for (let j = 0; j < NP; j++) a[k * NP + j] = a[j * NP + k] = 0;
+        a[k * NP + k] = 1;
+        rhs[k] = 0;
+      }
+    }
     if (!cholesky(a, NP)) {
-      lambda *= 10;
+      lambda *= nu;
+      nu *= 2;
       if (lambda > 1e16) break;
       continue;
     }
-    const step = choleskySolve(a, NP, g);
+    const step = choleskySolve(a, NP, rhs);
     const trial = Float64Array.from(p);
     for (let k = 0; k < NP; k++) trial[k] += step[k];
     clamp(trial);
     const chi2Trial = chi2Of(pts, trial, xRef);
-    if (Number.isFinite(chi2Trial) && chi2Trial <= chi2) {
+    // Predicted decrease of the linearised chi2 for the (projected) step d: 2 d.g - d.H.d.
+    let predicted = 0;
+    for (let i = 0; i < NP; i++) {
+      const di = trial[i] - p[i];
+      let hd = 0;
+      for (let j = 0; j < NP; j++) hd += h[i * NP + j] * (trial[j] - p[j]);
+      predicted += di * (2 * g[i] - hd);
+    }
+    const drop = chi2 - chi2Trial;
+    if (Number.isFinite(chi2Trial) && drop >= 0 && predicted > 0) {
       // Converged when the step is negligible against each parameter's
-      // statistical error (unscaled inverse normal matrix).
+      // statistical error (unscaled inverse normal matrix), or when the
+      // chi2 decrease is far below anything statistically meaningful.
       const inv = inverseSpd(h, NP);
       let small = inv !== null;
       for (let k = 0; k < NP && small; k++) {
-        small = Math.abs(trial[k] - p[k]) <= 1e-9 * Math.sqrt(inv![k * NP + k]) + 1e-15 * Math.abs(p[k]);
+        small = Math.abs(trial[k] - p[k]) <= 1e-7 * Math.sqrt(inv![k * NP + k]) + 1e-15 * Math.abs(p[k]);
       }
-      const drop = chi2 - chi2Trial;
+      const rho = drop / predicted;
       p.set(trial);
       chi2 = chi2Trial;
       ({ h, g } = normalEquations(pts, p, xRef));
-      lambda = Math.max(lambda / 10, 1e-12);
-      if (small || drop <= 1e-15 * chi2) {
+      lambda = Math.max(lambda * Math.max(1 / 3, 1 - (2 * rho - 1) ** 3), 1e-15);
+      nu = 2;
+      if (small || drop <= 1e-15 * chi2 || predicted <= 1e-12) {
         converged = true;
         break;
       }
+    } else if (Number.isFinite(chi2Trial) && drop >= 0 && predicted <= 0) {
+      // Nothing left to gain (step vanished, e.g. pressed against a bound).
+      converged = true;
+      break;
     } else {
-      lambda *= 10;
+      lambda *= nu;
+      nu *= 2;
       if (lambda > 1e16) {
         // No downhill step left at any damping: p is the minimum to machine precision.
         converged = true;

@@ -1,0 +1,239 @@
+/**
+ * One frame of the spectrum canvas: uncertainty band, masked-pixel strip, flux
+ * and model, clipped to the plot rectangle. Budgeted by pixels: when the visible
+ * samples exceed DECIMATE_POINTS_PER_COLUMN per device-pixel column, each
+ * column is drawn from its first/min/max/last. Pure apart from the context it is
+ * handed, so a benchmark can time frames in a real browser.
+ */
+import { decimateMinMax, DECIMATE_POINTS_PER_COLUMN, lowerBound, upperBound, type MinMaxColumns } from './decimate';
+import type { DisplaySeries } from './displaySeries';
+import { SPECTRUM_COLOURS } from './palette';
+
+/** The part of a 2-D canvas context the frame uses (a real CanvasRenderingContext2D fits). */
+export type Canvas2DLike = Pick<
+  CanvasRenderingContext2D,
+  | 'setTransform' | 'clearRect' | 'save' | 'restore' | 'beginPath' | 'rect' | 'clip' | 'moveTo' | 'lineTo'
+  | 'closePath' | 'stroke' | 'fill' | 'fillRect' | 'setLineDash' | 'fillStyle' | 'strokeStyle' | 'lineWidth'
+  | 'globalAlpha' | 'lineJoin'
+>;
+
+/** A rectangle in CSS pixels from the canvas' top-left corner. */
+export interface PlotRect {
+  left: number;
+  top: number;
+  width: number;
+  height: number;
+}
+
+export interface SpectrumFrame {
+  /** Canvas size, CSS px. */
+  widthPx: number;
+  heightPx: number;
+  /** Device pixels per CSS pixel (window.devicePixelRatio). */
+  pixelRatio: number;
+  plot: PlotRect;
+  /** Visible observed wavelength window, Angstrom. */
+  xDomainA: readonly [number, number];
+  /** Visible flux window, flux units. */
+  yDomain: readonly [number, number];
+  series: DisplaySeries;
+  /** Model flux on the same wavelength grid, or null. */
+  model: Float64Array | null;
+  /** 'auto' (default) decimates past DECIMATE_POINTS_PER_COLUMN per column; the others force a path, for tests and benchmarks. */
+  decimate?: 'auto' | 'always' | 'never';
+}
+
+export interface FrameStats {
+  mode: 'points' | 'columns';
+  /** Samples in (or bordering) the visible window. */
+  visiblePoints: number;
+  /** Device-pixel columns across the plot. */
+  columns: number;
+}
+
+/** Height of the masked-pixel strip along the bottom of the plot, CSS px. */
+export const MASK_STRIP_PX = 6;
+/** Canvas coordinates are clamped to this many CSS px beyond the frame, so wild values cannot break a path. */
+const FAR_PX = 1e5;
+
+export function drawSpectrumFrame(ctx: Canvas2DLike, f: SpectrumFrame): FrameStats {
+  const dpr = f.pixelRatio > 0 ? f.pixelRatio : 1;
+  const { left, top, width, height } = f.plot;
+  ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
+  ctx.clearRect(0, 0, f.widthPx, f.heightPx);
+  const w = f.series.wavelengthA;
+  const [x0, x1] = f.xDomainA;
+  const [y0, y1] = f.yDomain;
+  const nCols = Math.max(1, Math.round(width * dpr));
+  if (!(x1 > x0) || !(y1 > y0) || w.length < 2 || width <= 0 || height <= 0) {
+    return { mode: 'points', visiblePoints: 0, columns: nCols };
+  }
+  // One sample beyond each edge, so the line runs out of the frame instead of stopping short.
+  const i0 = Math.max(0, lowerBound(w, x0) - 1);
+  const i1 = Math.min(w.length, upperBound(w, x1) + 1);
+  const visible = i1 - i0;
+  const byColumns = f.decimate === 'always' || (f.decimate !== 'never' && visible > DECIMATE_POINTS_PER_COLUMN * nCols);
+
+  const sx = width / (x1 - x0);
+  const sy = height / (y1 - y0);
+  const X = (v: number) => left + (v - x0) * sx;
+  const Y = (v: number) => {
+    const p = top + height - (v - y0) * sy;
+    return p < top - FAR_PX ? top - FAR_PX : p > top + height + FAR_PX ? top + height + FAR_PX : p;
+  };
+  const colX = (c: number) => left + (c + 0.5) / dpr;
+
+  ctx.save();
+  ctx.beginPath();
+  ctx.rect(left, top, width, height);
+  ctx.clip();
+  ctx.lineJoin = 'round';
+  ctx.setLineDash([]);
+
+  drawMask(ctx, f, i0, i1, X, dpr);
+
+  const { bandLow, bandHigh } = f.series;
+  if (bandLow && bandHigh) {
+    ctx.globalAlpha = SPECTRUM_COLOURS.bandAlpha;
+    ctx.fillStyle = SPECTRUM_COLOURS.band;
+    ctx.beginPath();
+    if (byColumns) {
+      const lo = decimateMinMax(w, bandLow, x0, x1, nCols);
+      const hi = decimateMinMax(w, bandHigh, x0, x1, nCols);
+      traceBandColumns(ctx, lo, hi, colX, Y);
+    } else {
+      traceBandPoints(ctx, w, bandLow, bandHigh, i0, i1, X, Y);
+    }
+    ctx.fill();
+    ctx.globalAlpha = 1;
+  }
+
+  ctx.strokeStyle = SPECTRUM_COLOURS.flux;
+  ctx.lineWidth = 1;
+  ctx.beginPath();
+  if (byColumns) traceColumns(ctx, decimateMinMax(w, f.series.flux, x0, x1, nCols), colX, Y);
+  else tracePoints(ctx, w, f.series.flux, i0, i1, X, Y);
+  ctx.stroke();
+
+  if (f.model && f.model.length === w.length) {
+    ctx.strokeStyle = SPECTRUM_COLOURS.model;
+    ctx.lineWidth = 1.5;
+    ctx.beginPath();
+    if (byColumns) traceColumns(ctx, decimateMinMax(w, f.model, x0, x1, nCols), colX, Y);
+    else tracePoints(ctx, w, f.model, i0, i1, X, Y);
+    ctx.stroke();
+  }
+  ctx.restore();
+  return { mode: byColumns ? 'columns' : 'points', visiblePoints: visible, columns: nCols };
+}
+
+/** Polyline through finite samples; a NaN lifts the pen (a gap). */
+export function tracePoints(
+  ctx: Canvas2DLike,
+  x: Float64Array,
+  y: Float64Array,
+  i0: number,
+  i1: number,
+  X: (v: number) => number,
+  Y: (v: number) => number,
+): void {
+  let pen = false;
+  for (let i = i0; i < i1; i++) {
+    const v = y[i];
+    if (!Number.isFinite(v)) {
+      pen = false;
+      continue;
+    }
+    if (pen) ctx.lineTo(X(x[i]), Y(v));
+    else ctx.moveTo(X(x[i]), Y(v));
+    pen = true;
+  }
+}
+
+/** Per column: first -> min -> max -> last at the column centre; an empty column lifts the pen. */
+export function traceColumns(ctx: Canvas2DLike, cols: MinMaxColumns, colX: (c: number) => number, Y: (v: number) => number): void {
+  let pen = false;
+  for (let c = 0; c < cols.nColumns; c++) {
+    if (cols.count[c] === 0) {
+      pen = false;
+      continue;
+    }
+    const px = colX(c);
+    if (pen) ctx.lineTo(px, Y(cols.first[c]));
+    else ctx.moveTo(px, Y(cols.first[c]));
+    ctx.lineTo(px, Y(cols.min[c]));
+    ctx.lineTo(px, Y(cols.max[c]));
+    ctx.lineTo(px, Y(cols.last[c]));
+    pen = true;
+  }
+}
+
+/** Closed band polygons, one per run of samples where both edges are finite. */
+function traceBandPoints(
+  ctx: Canvas2DLike,
+  x: Float64Array,
+  lo: Float64Array,
+  hi: Float64Array,
+  i0: number,
+  i1: number,
+  X: (v: number) => number,
+  Y: (v: number) => number,
+): void {
+  let i = i0;
+  while (i < i1) {
+    while (i < i1 && !(Number.isFinite(lo[i]) && Number.isFinite(hi[i]))) i++;
+    const a = i;
+    while (i < i1 && Number.isFinite(lo[i]) && Number.isFinite(hi[i])) i++;
+    if (i - a < 2) continue;
+    ctx.moveTo(X(x[a]), Y(hi[a]));
+    for (let j = a + 1; j < i; j++) ctx.lineTo(X(x[j]), Y(hi[j]));
+    for (let j = i - 1; j >= a; j--) ctx.lineTo(X(x[j]), Y(lo[j]));
+    ctx.closePath();
+  }
+}
+
+/** Band by columns: along the top of each column's upper edge, back along the bottom of its lower edge. */
+function traceBandColumns(ctx: Canvas2DLike, lo: MinMaxColumns, hi: MinMaxColumns, colX: (c: number) => number, Y: (v: number) => number): void {
+  const n = lo.nColumns;
+  let c = 0;
+  const ok = (k: number) => lo.count[k] > 0 && hi.count[k] > 0;
+  while (c < n) {
+    while (c < n && !ok(c)) c++;
+    const a = c;
+    while (c < n && ok(c)) c++;
+    if (c === a) continue;
+    // a one-column run still gets a sliver half a column wide either side
+    const dx = c - a === 1 ? 0.5 : 0;
+    ctx.moveTo(colX(a) - dx, Y(hi.max[a]));
+    for (let k = a + 1; k < c; k++) ctx.lineTo(colX(k), Y(hi.max[k]));
+    ctx.lineTo(colX(c - 1) + dx, Y(hi.max[c - 1]));
+    for (let k = c - 1; k >= a; k--) ctx.lineTo(colX(k) + (k === c - 1 ? dx : 0), Y(lo.min[k]));
+    ctx.lineTo(colX(a) - dx, Y(lo.min[a]));
+    ctx.closePath();
+  }
+}
+
+/** Masked runs: a faint full-height shade plus a solid strip along the bottom edge. */
+function drawMask(ctx: Canvas2DLike, f: SpectrumFrame, i0: number, i1: number, X: (v: number) => number, dpr: number): void {
+  const { mask, wavelengthA: w } = f.series;
+  const { top, height } = f.plot;
+  const minW = 1 / dpr;
+  let i = i0;
+  ctx.fillStyle = SPECTRUM_COLOURS.mask;
+  while (i < i1) {
+    while (i < i1 && !mask[i]) i++;
+    if (i >= i1) break;
+    const a = i;
+    while (i < i1 && mask[i]) i++;
+    const b = i - 1;
+    // a pixel covers half-way to its neighbours
+    const la = a > 0 ? 0.5 * (w[a - 1] + w[a]) : w[a];
+    const lb = b < w.length - 1 ? 0.5 * (w[b] + w[b + 1]) : w[b];
+    const pa = X(la);
+    const pw = Math.max(minW, X(lb) - pa);
+    ctx.globalAlpha = 0.12;
+    ctx.fillRect(pa, top, pw, height);
+    ctx.globalAlpha = 1;
+    ctx.fillRect(pa, top + height - MASK_STRIP_PX, pw, MASK_STRIP_PX);
+  }
+}

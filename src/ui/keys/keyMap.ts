@@ -1,0 +1,69 @@
+/**
+ * Every key of the workbench in one place: the keyboard handler, the help
+ * overlay and the tests all read this list. Keys are KeyboardEvent.key
+ * values. The spectrum plot's own keys (zoom, pan, reset) are in PLOT_KEYS
+ * and work while the plot has focus.
+ */
+export type ActionId =
+  | 'next'
+  | 'previous'
+  | 'nextUnreviewed'
+  | 'accept'
+  | 'reject'
+  | 'reopen'
+  | 'candidate'
+  | 'typeZ'
+  | 'nameLine'
+  | 'grade'
+  | 'note'
+  | 'filter'
+  | 'sort'
+  | 'focusPlot'
+  | 'export'
+  | 'cosmology'
+  | 'session'
+  | 'help'
+  | 'escape';
+
+export interface KeyBinding {
+  action: ActionId;
+  keys: readonly string[];
+  /** What the help overlay says. */
+  label: string;
+}
+
+export const KEY_MAP: readonly KeyBinding[] = [
+  { action: 'next', keys: ['j', 'ArrowDown'], label: 'Next spectrum in the list' },
+  { action: 'previous', keys: ['k', 'ArrowUp'], label: 'Previous spectrum in the list' },
+  { action: 'nextUnreviewed', keys: ['n'], label: 'Next spectrum not yet reviewed' },
+  { action: 'accept', keys: ['a', 'Enter'], label: 'Accept the solution shown (records a change when you picked another) and open the next unreviewed' },
+  { action: 'reject', keys: ['x'], label: 'Reject as unusable and open the next unreviewed' },
+  { action: 'reopen', keys: ['u'], label: 'Undo the decision on this spectrum (back to not reviewed)' },
+  { action: 'candidate', keys: ['1', '2', '3', '4', '5', '6', '7', '8', '9'], label: 'Show candidate 1 to 9 (in the line list: choose that line)' },
+  { action: 'typeZ', keys: ['z'], label: 'Type a redshift' },
+  { action: 'nameLine', keys: ['l'], label: 'Name a line: type its observed wavelength (or click a feature in the spectrum)' },
+  { action: 'grade', keys: ['g'], label: 'Cycle your confidence grade: high, medium, low, none' },
+  { action: 'note', keys: ['e'], label: 'Write a note' },
+  { action: 'filter', keys: ['f'], label: 'Cycle the list filter' },
+  { action: 'sort', keys: ['s'], label: 'Cycle the list order' },
+  { action: 'focusPlot', keys: ['v'], label: 'Put the keyboard on the spectrum plot (zoom and pan keys below)' },
+  { action: 'export', keys: ['t'], label: 'Open the catalogue export' },
+  { action: 'cosmology', keys: ['c'], label: 'Open the cosmology settings' },
+  { action: 'session', keys: ['b'], label: 'Open the session panel (save, load, add files)' },
+  { action: 'help', keys: ['?'], label: 'Show or hide this list of keys' },
+  { action: 'escape', keys: ['Escape'], label: 'Close a panel, leave a text field or stop naming a line' },
+];
+
+const BY_KEY = new Map<string, ActionId>();
+for (const b of KEY_MAP) for (const k of b.keys) BY_KEY.set(k, b.action);
+
+/** The action bound to a key press, or null. Modifier chords (Ctrl, Alt, Meta) are left to the browser. */
+export function actionForKey(e: { key: string; ctrlKey?: boolean; altKey?: boolean; metaKey?: boolean }): ActionId | null {
+  if (e.ctrlKey || e.altKey || e.metaKey) return null;
+  return BY_KEY.get(e.key) ?? null;
+}
+
+/** The first key bound to an action, for buttons' hints. */
+export function keyFor(action: ActionId): string {
+  return KEY_MAP.find((b) => b.action === action)!.keys[0];
+}

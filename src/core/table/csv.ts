@@ -1,0 +1,170 @@
+/**
+ * CSV export and import of the catalogue.
+ *
+ * Writing follows RFC 4180 (Shafranovich 2005): CRLF line ends; a cell holding
+ * a comma, double quote, CR or LF is enclosed in double quotes with inner quotes
+ * doubled. Before the column-name row comes an optional block of '#' comment
+ * lines (provenance and the caution); RFC 4180 has no comments, so callers
+ * whose readers choke on them turn the block off.
+ *
+ * Formula guard (OWASP "CSV injection" advice, common practice): a spreadsheet
+ * runs a cell that starts with = + - @ TAB or CR as a formula. Such text cells
+ * get a leading apostrophe, which spreadsheets hide. The guard is applied to
+ * text only: a number this module wrote into a numeric column (e.g. z = -0.000120)
+ * passes untouched. A numeric cell that is not a plain number is treated as text.
+ * Text that already starts with an apostrophe gets one more, so that reading
+ * back (strip one leading apostrophe) is lossless.
+ */
+import type { ColumnDef, TableRow } from './columns';
+import { isPlainValue } from './formatCell';
+import { metaEntries, type ExportMeta } from './meta';
+
+const FORMULA_START = /^[=+\-@\t\r']/;
+
+/** Neutralise a cell a spreadsheet could run as a formula (see module comment). */
+export function guardCell(col: ColumnDef | undefined, cell: string): string {
+  if (cell === '' || isPlainValue(col, cell)) return cell;
+  return FORMULA_START.test(cell) ? `'${cell}` : cell;
+}
+
+/** RFC 4180 quoting: enclose in double quotes when needed, doubling inner quotes. */
+export function quoteCsv(cell: string): string {
+  return /[",\r\n]/.test(cell) ? `"${cell.replace(/"/g, '""')}"` : cell;
+}
+
+export interface CsvOptions {
+  /** Write the '#' comment block before the column names (default true). */
+  headerBlock?: boolean;
+}
+
+/** The catalogue as CSV text: optional comment block, column names, one line per row, CRLF. */
+export function catalogueCsv(rows: readonly TableRow[], columns: readonly ColumnDef[], meta: ExportMeta, options: CsvOptions = {}): string {
+  const lines: string[] = [];
+  if (options.headerBlock ?? true) {
+    for (const [k, v] of metaEntries(meta, columns)) lines.push(`# ${k}: ${v}`);
+  }
+  lines.push(columns.map((c) => quoteCsv(c.name)).join(','));
+  for (const row of rows) {
+    lines.push(columns.map((c) => quoteCsv(guardCell(c, row[c.name] ?? ''))).join(','));
+  }
+  return lines.map((l) => l + '\r\n').join('');
+}
+
+/** A CSV that cannot be read back as a catalogue. */
+export class CatalogueParseError extends Error {
+  /** 1-based line number where the problem sits. */
+  readonly line: number;
+  constructor(line: number, reason: string) {
+    super(`line ${line}: ${reason}`);
+    this.name = 'CatalogueParseError';
+    this.line = line;
+  }
+}
+
+export interface ParsedCatalogue {
+  /** The '# key: value' lines of the header block (empty when there was none). */
+  meta: Record<string, string>;
+  /** Column names in file order. */
+  columns: string[];
+  rows: TableRow[];
+}
+
+/**
+ * Read a catalogue CSV back (e.g. to merge the tables of several shards).
+ * Accepts CRLF or LF line ends, a leading byte-order mark and a leading '#'
+ * block; undoes the formula guard. Throws CatalogueParseError on an unclosed
+ * quote, a row whose cell count differs from the column names, or a repeated
+ * column name.
+ */
+export function parseCatalogueCsv(text: string): ParsedCatalogue {
+  let pos = text.charCodeAt(0) === 0xfeff ? 1 : 0;
+  let line = 1;
+  const meta: Record<string, string> = {};
+  // Comment block: whole lines starting with '#', before the column names only.
+  while (pos < text.length && text[pos] === '#') {
+    const end = lineEnd(text, pos);
+    const body = text.slice(pos + 1, end).trim();
+    const colon = body.indexOf(':');
+    if (colon > 0) meta[body.slice(0, colon).trim()] = body.slice(colon + 1).trim();
+    pos = skipBreak(text, end);
+    line++;
+  }
+  const records: Array<{ line: number; cells: string[] }> = [];
+  while (pos < text.length) {
+    const start = line;
+    const cells: string[] = [];
+    for (;;) {
+      let cell = '';
+      if (text[pos] === '"') {
+        pos++;
+        for (;;) {
+          if (pos >= text.length) throw new CatalogueParseError(start, 'quoted cell is never closed');
+          const ch = text[pos];
+          if (ch === '"') {
+            if (text[pos + 1] === '"') {
+              cell += '"';
+              pos += 2;
+              continue;
+            }
+            pos++;
+            break;
+          }
+          if (ch === '\n') line++;
+          cell += ch;
+          pos++;
+        }
+        if (pos < text.length && text[pos] !== ',' && text[pos] !== '\r' && text[pos] !== '\n') {
+          throw new CatalogueParseError(line, 'text after a closing quote');
+        }
+      } else {
+        const from = pos;
+        while (pos < text.length && text[pos] !== ',' && text[pos] !== '\r' && text[pos] !== '\n') pos++;
+        cell = text.slice(from, pos);
+      }
+      cells.push(cell);
+      if (text[pos] === ',') {
+        pos++;
+        continue;
+      }
+      pos = skipBreak(text, pos);
+      line++;
+      break;
+    }
+    if (!(cells.length === 1 && cells[0] === '')) records.push({ line: start, cells }); // skip blank lines
+  }
+  if (records.length === 0) throw new CatalogueParseError(line, 'no column-name row');
+  const columns = records[0].cells;
+  const seen = new Set<string>();
+  for (const c of columns) {
+    if (seen.has(c)) throw new CatalogueParseError(records[0].line, `column '${c}' appears twice`);
+    seen.add(c);
+  }
+  const rows: TableRow[] = records.slice(1).map(({ line: at, cells }) => {
+    if (cells.length !== columns.length) {
+      throw new CatalogueParseError(at, `${cells.length} cells where the header names ${columns.length} columns`);
+    }
+    const row: Record<string, string> = {};
+    columns.forEach((name, i) => {
+      row[name] = unguardCell(cells[i]);
+    });
+    return row;
+  });
+  return { meta, columns, rows };
+}
+
+/** Undo guardCell: drop the one apostrophe the writer added. */
+function unguardCell(cell: string): string {
+  return cell.startsWith("'") ? cell.slice(1) : cell;
+}
+
+function lineEnd(text: string, from: number): number {
+  let i = from;
+  while (i < text.length && text[i] !== '\r' && text[i] !== '\n') i++;
+  return i;
+}
+
+function skipBreak(text: string, at: number): number {
+  if (text[at] === '\r') return text[at + 1] === '\n' ? at + 2 : at + 1;
+  if (text[at] === '\n') return at + 1;
+  return at;
+}

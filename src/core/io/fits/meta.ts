@@ -1,0 +1,98 @@
+/**
+ * Spectrum metadata from FITS headers: object id, position, date, exposure,
+ * instrument, flux unit. Headers are searched in the order given (the data HDU
+ * first, then the primary HDU); the first usable value wins.
+ */
+import type { SpectrumMeta } from '../../types';
+import type { FitsHeader } from './header';
+
+function firstString(hs: readonly FitsHeader[], keys: readonly string[]): string | undefined {
+  for (const h of hs) {
+    for (const k of keys) {
+      const v = h.get(k);
+      if (typeof v === 'string' && v.trim() !== '') return v.trim();
+      if (typeof v === 'number' || typeof v === 'bigint') return String(v);
+    }
+  }
+  return undefined;
+}
+
+function firstNumber(hs: readonly FitsHeader[], keys: readonly string[]): number | undefined {
+  for (const h of hs) {
+    for (const k of keys) {
+      const v = h.get(k);
+      if (typeof v === 'number' && Number.isFinite(v)) return v;
+      if (typeof v === 'string' && /^[+-]?(\d+\.?\d*|\.\d+)([eEdD][+-]?\d+)?$/.test(v.trim())) return Number(v.trim().replace(/[dD]/, 'e'));
+    }
+  }
+  return undefined;
+}
+
+/**
+ * Parse a sexagesimal angle 'dd:mm:ss.s', 'dd mm ss.s' or 'ddhmmmss.ss' into
+ * units of its first field (hours or degrees), or a plain decimal string.
+ * Returns undefined for anything else.
+ */
+export function parseSexagesimal(text: string): number | undefined {
+  const t = text.trim();
+  if (/^[+-]?(\d+\.?\d*|\.\d+)$/.test(t)) return Number(t);
+  const m = /^([+-])?\s*(\d+)[\s:hHdD]+(\d+)[\s:mM']+(\d+(?:\.\d*)?)\s*[sS"]?$/.exec(t) ?? /^([+-])?\s*(\d+)[\s:hHdD]+(\d+(?:\.\d*)?)[mM']?$/.exec(t);
+  if (!m) return undefined;
+  const a = Number(m[2]);
+  const b = Number(m[3]);
+  const c = m[4] !== undefined ? Number(m[4]) : 0;
+  if (b >= 60 || c >= 60) return undefined;
+  const v = a + b / 60 + c / 3600;
+  return m[1] === '-' ? -v : v;
+}
+
+/** Right ascension in degrees: numbers are degrees; sexagesimal strings are hours. */
+function raDeg(hs: readonly FitsHeader[]): number | undefined {
+  // PLUG_RA is the object position in fibre-fed survey files, where RA can be the telescope pointing.
+  for (const h of hs) {
+    for (const k of ['PLUG_RA', 'RA_OBJ', 'OBJRA', 'RA_TARG', 'RA']) {
+      const v = h.get(k);
+      if (typeof v === 'number' && Number.isFinite(v)) return v;
+      if (typeof v === 'string') {
+        const isSexa = /[:\shH]/.test(v.trim());
+        const x = parseSexagesimal(v);
+        if (x !== undefined) return isSexa ? x * 15 : x;
+      }
+    }
+  }
+  return undefined;
+}
+
+function decDeg(hs: readonly FitsHeader[]): number | undefined {
+  for (const h of hs) {
+    for (const k of ['PLUG_DEC', 'DEC_OBJ', 'OBJDEC', 'DEC_TARG', 'DEC']) {
+      const v = h.get(k);
+      if (typeof v === 'number' && Number.isFinite(v)) return v;
+      if (typeof v === 'string') {
+        const x = parseSexagesimal(v);
+        if (x !== undefined) return x;
+      }
+    }
+  }
+  return undefined;
+}
+
+/** Metadata from the headers, most specific first. `fluxUnit` overrides BUNIT (e.g. a table column's TUNIT). */
+export function metaFromHeaders(hs: readonly FitsHeader[], fluxUnit?: string): SpectrumMeta {
+  const meta: SpectrumMeta = {};
+  const objectId = firstString(hs, ['OBJECT', 'OBJNAME', 'OBJID', 'TARGNAME', 'TARGET']);
+  if (objectId !== undefined) meta.objectId = objectId;
+  const ra = raDeg(hs);
+  if (ra !== undefined) meta.raDeg = ra;
+  const dec = decDeg(hs);
+  if (dec !== undefined) meta.decDeg = dec;
+  const date = firstString(hs, ['DATE-OBS', 'DATE_OBS']);
+  if (date !== undefined) meta.dateObs = date;
+  const exp = firstNumber(hs, ['EXPTIME', 'EXPOSURE', 'EXP_TIME', 'TEXPTIME']);
+  if (exp !== undefined) meta.exposureS = exp;
+  const instrument = firstString(hs, ['INSTRUME']) ?? firstString(hs, ['TELESCOP']);
+  if (instrument !== undefined) meta.instrument = instrument;
+  const unit = fluxUnit !== undefined && fluxUnit.trim() !== '' ? fluxUnit.trim() : firstString(hs, ['BUNIT']);
+  if (unit !== undefined) meta.fluxUnit = unit;
+  return meta;
+}

@@ -1,0 +1,8 @@
+/** Public face of the spectrum simulator. */
+export { createRng, mulberry32, mixSeed, type Rng } from './prng';
+export { DEFAULT_GRID, makeGrid, type GridSpec } from './grid';
+export { tauEff, forestTransmission, forestAmplitude } from './forest';
+export { simulateSpectrum, FLUX_UNIT, type SimClass, type SimParams, type SimTruth, type Simulated } from './simulateSpectrum';
+export { simulateBatch, batchParams, type BatchOptions } from './simulateBatch';
+export type { TruthLine } from './model';
+export type { StarType } from './star';

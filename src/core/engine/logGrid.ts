@@ -1,0 +1,52 @@
+/**
+ * The one logarithmic wavelength grid every part of the engine shares.
+ *
+ * Pixel k (an integer, absolute: the same k means the same wavelength for every
+ * spectrum and every template) has its centre at log10(lambda / 1 A) = k * DLOG10
+ * and its edges half a pixel either side. On this grid a redshift is a whole
+ * shift of n pixels: 1 + z = 10^(n * DLOG10) (reference sheet sec. 3).
+ */
+
+/** Pixel size in log10(lambda), dimensionless. */
+export const DLOG10 = 1e-4;
+
+/** Speed of light, km/s (SI definition, exact). */
+export const C_KMS = 299792.458;
+
+/** Velocity width of one pixel, km/s: c ln(10) DLOG10 = 69.0298 km/s (reference sheet sec. 3). */
+export const KMS_PER_PIXEL = C_KMS * Math.LN10 * DLOG10;
+
+/** Centre wavelength of absolute pixel k (fractional k allowed), Angstrom. */
+export function wavelengthOfPixel(k: number, dlog10 = DLOG10): number {
+  return Math.pow(10, k * dlog10);
+}
+
+/** Fractional absolute pixel coordinate of a wavelength in Angstrom. */
+export function pixelOfWavelength(lambdaA: number, dlog10 = DLOG10): number {
+  return Math.log10(lambdaA) / dlog10;
+}
+
+/** Redshift of a shift of n pixels (fractional allowed): 1 + z = 10^(n dlog10). */
+export function zOfShift(n: number, dlog10 = DLOG10): number {
+  return Math.pow(10, n * dlog10) - 1;
+}
+
+/** Shift in pixels (fractional) that corresponds to redshift z. */
+export function shiftOfZ(z: number, dlog10 = DLOG10): number {
+  return Math.log10(1 + z) / dlog10;
+}
+
+/** dz per pixel of shift at redshift z: d(10^(n d))/dn = ln(10) d (1 + z). */
+export function dzPerPixel(z: number, dlog10 = DLOG10): number {
+  return Math.LN10 * dlog10 * (1 + z);
+}
+
+/** Number of pixels that a velocity in km/s spans (ln(1 + v/c) in pixel units). */
+export function pixelsOfVelocity(vKms: number, dlog10 = DLOG10): number {
+  return Math.log1p(vKms / C_KMS) / (Math.LN10 * dlog10);
+}
+
+/** Velocity separation of two redshifts, km/s: c ln((1 + z2)/(1 + z1)). */
+export function velocitySeparationKms(z1: number, z2: number): number {
+  return C_KMS * Math.log((1 + z2) / (1 + z1));
+}

@@ -1,0 +1,30 @@
+import { describe, expect, it } from 'vitest';
+import { DLOG10, KMS_PER_PIXEL, dzPerPixel, shiftOfZ, velocitySeparationKms, zOfShift, pixelsOfVelocity } from '../../../src/core/engine/logGrid';
+
+describe('logGrid', () => {
+  it('KMS_PER_PIXEL is c ln(10) dlog = 69.0298 km/s for dlog = 1e-4', () => {
+    // reference sheet sec. 3 [C]: 69.0298 km/s
+    expect(DLOG10).toBe(1e-4);
+    expect(KMS_PER_PIXEL).toBeCloseTo(69.0298, 4);
+  });
+
+  it('zOfShift(n) = 10^(n dlog) - 1 and shiftOfZ inverts it', () => {
+    // reference sheet sec. 3: 1 + z = 10^(n * dlog)
+    expect(zOfShift(1000)).toBeCloseTo(Math.pow(10, 0.1) - 1, 14);
+    expect(zOfShift(0)).toBe(0);
+    for (const z of [0.001, 0.5, 3.2, 6.5]) expect(zOfShift(shiftOfZ(z))).toBeCloseTo(z, 12);
+  });
+
+  it('dzPerPixel matches a finite difference of zOfShift', () => {
+    // derivative of 10^(n d): ln(10) d 10^(n d) (calculus)
+    const n = 4321.5;
+    const fd = (zOfShift(n + 1e-3) - zOfShift(n - 1e-3)) / 2e-3;
+    expect(dzPerPixel(zOfShift(n))).toBeCloseTo(fd, 9);
+  });
+
+  it('velocity helpers agree with one pixel = 69.03 km/s', () => {
+    // one pixel: c ln(1+z) with ln(1+z) = ln(10) dlog (reference sheet sec. 3)
+    expect(velocitySeparationKms(0, zOfShift(1))).toBeCloseTo(69.0298, 3);
+    expect(pixelsOfVelocity(KMS_PER_PIXEL * 10)).toBeGreaterThan(9.99);
+  });
+});

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { allNumeric, detectSeparator, parseField, splitFields } from '../../../src/core/io/text/fields';
+import fc from 'fast-check';
+import { allNumeric, detectSeparator, fastDecimal, NUMBER_SYNTAX, parseField, scanNumber, splitFields } from '../../../src/core/io/text/fields';
 
 describe('parseField(s)', () => {
   it('reads decimal and exponent notation', () => {
@@ -45,5 +46,43 @@ describe('detectSeparator and allNumeric', () => {
   it('tells a data row from a header row', () => {
     expect(allNumeric(['1', 'nan', ''])).toBe(true);
     expect(allNumeric(['wave', '1'])).toBe(false);
+  });
+});
+
+describe('scanNumber(s) against the reference NUMBER_SYNTAX', () => {
+  it('agrees with the regular expression on number-like strings', () => {
+    // Property test: the fast char scanner and the slow regular expression accept the same strings.
+    fc.assert(
+      fc.property(fc.string({ unit: fc.constantFrom('0', '1', '9', '.', 'e', 'E', 'd', 'D', '+', '-', 'x', ' ', 'n'), maxLength: 12 }), (s) => {
+        const ref = NUMBER_SYNTAX.test(s) ? (/[dD]/.test(s) ? 2 : 1) : 0;
+        expect(scanNumber(s)).toBe(ref);
+      }),
+      { numRuns: 3000 },
+    );
+  });
+});
+
+describe('fastDecimal(s) against Number(s)', () => {
+  it('gives exactly Number(s) for random decimal strings', () => {
+    // Property test against the slow obvious version; Clinger 1990 says they must agree bit for bit.
+    const decimal = fc
+      .tuple(
+        fc.constantFrom('', '+', '-'),
+        fc.string({ unit: fc.constantFrom('0', '1', '2', '3', '4', '5', '6', '7', '8', '9'), minLength: 1, maxLength: 20 }),
+        fc.option(fc.string({ unit: fc.constantFrom('0', '3', '5', '7', '9'), maxLength: 20 })),
+        fc.option(fc.tuple(fc.constantFrom('e', 'E'), fc.constantFrom('', '+', '-'), fc.integer({ min: 0, max: 330 }))),
+      )
+      .map(([sign, int, frac, exp]) => `${sign}${int}${frac === null ? '' : `.${frac}`}${exp === null ? '' : `${exp[0]}${exp[1]}${exp[2]}`}`);
+    fc.assert(
+      fc.property(decimal, (s) => {
+        expect(Object.is(fastDecimal(s), Number(s)), s).toBe(true);
+      }),
+      { numRuns: 5000 },
+    );
+  });
+  it('agrees on survey-like values and edge cases', () => {
+    for (const s of ['3803.6448', '-4.220672', '0.01550467', '1e-17', '-0', '0.1', '9007199254740993', '1e23', '123456789012345.6', '.5', '5.']) {
+      expect(Object.is(fastDecimal(s), Number(s)), s).toBe(true);
+    }
   });
 });

@@ -1,0 +1,356 @@
+/**
+ * Chi-square against redshift for one template family, at every whole-pixel
+ * shift of a range: weighted least squares with the template amplitudes (kept
+ * non-negative) and a low-order observed-frame polynomial solved at each shift
+ * from the normal equations (A^T W A) c = A^T W f (reference sheet sec. 5).
+ *
+ * On the log grid a redshift is a shift, so every sum the normal equations need
+ * is a correlation of an observed-frame signal with a rest-frame one:
+ *   sum_i w_i f_i t_j(i - s), sum_i w_i p_a(i) t_j(i - s), sum_i w_i t_j t_k(i - s).
+ * scanSumsFFT gets them all with FFTs; scanSumsDirect is the slow obvious sum
+ * kept for tests (the two agree to ~1e-9 relative).
+ */
+import { CorrelationPlan, nextPow2, type HalfSpectrum } from './fftCorrelate';
+import { makeNnlsWork, nnlsNormal } from './linalg';
+import { valueAt, type RestArray } from './restArray';
+
+/** Data for a scan: on the log grid, pixel i at absolute index k0 + i (any binning). */
+export interface ScanData {
+  k0: number;
+  flux: Float64Array;
+  ivar: Float64Array;
+}
+
+/** All sums the normal equations need, one value per shift s = sMin .. sMin + nShift - 1. */
+export interface ScanSums {
+  sMin: number;
+  nShift: number;
+  K: number;
+  P: number;
+  /** tf[j][s]: sum w f t_j(i - s). */
+  tf: Float64Array[];
+  /** tp[j * P + a][s]: sum w p_a t_j(i - s). */
+  tp: Float64Array[];
+  /** tt[j * K + k][s] for j <= k: sum w t_j t_k (i - s); null when the vectors never overlap. */
+  tt: (Float64Array | null)[];
+}
+
+/**
+ * Legendre polynomials P_0 .. P_(P-1) of x in [-1, 1] across the data pixels
+ * (well conditioned for the continuum terms).
+ */
+export function polyBasis(n: number, P: number): Float64Array[] {
+  const out: Float64Array[] = [];
+  for (let a = 0; a < P; a++) out.push(new Float64Array(n));
+  for (let i = 0; i < n; i++) {
+    const x = n > 1 ? (2 * i) / (n - 1) - 1 : 0;
+    let pm1 = 1;
+    let p = x;
+    if (P > 0) out[0][i] = 1;
+    if (P > 1) out[1][i] = x;
+    for (let a = 2; a < P; a++) {
+      // Bonnet recursion: a P_a = (2a - 1) x P_(a-1) - (a - 1) P_(a-2)
+      const next = ((2 * a - 1) * x * p - (a - 1) * pm1) / a;
+      pm1 = p;
+      p = next;
+      out[a][i] = p;
+    }
+  }
+  return out;
+}
+
+function overlaps(a: RestArray, b: RestArray): boolean {
+  return a.lo <= a.hi && b.lo <= b.hi && a.lo <= b.hi && b.lo <= a.hi;
+}
+
+/** Does vector t meet any data pixel over the shift range? */
+function reaches(t: RestArray, data: ScanData, sMin: number, sMax: number): boolean {
+  const restLo = data.k0 - sMax;
+  const restHi = data.k0 + data.flux.length - 1 - sMin;
+  return t.lo <= t.hi && t.lo <= restHi && t.hi >= restLo;
+}
+
+function emptySums(sMin: number, nShift: number, K: number, P: number, vectors: RestArray[]): ScanSums {
+  const tt: (Float64Array | null)[] = new Array(K * K).fill(null);
+  for (let j = 0; j < K; j++) for (let k = j; k < K; k++) if (overlaps(vectors[j], vectors[k])) tt[j * K + k] = new Float64Array(nShift);
+  return {
+    sMin,
+    nShift,
+    K,
+    P,
+    tf: vectors.map(() => new Float64Array(nShift)),
+    tp: Array.from({ length: K * P }, () => new Float64Array(nShift)),
+    tt,
+  };
+}
+
+/** The slow obvious sums (for tests and tiny ranges). */
+export function scanSumsDirect(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number): ScanSums {
+  const n = data.flux.length;
+  const K = vectors.length;
+  const nShift = sMax - sMin + 1;
+  const sums = emptySums(sMin, nShift, K, P, vectors);
+  const poly = polyBasis(n, P);
+  for (let si = 0; si < nShift; si++) {
+    const s = sMin + si;
+    for (let i = 0; i < n; i++) {
+      const w = data.ivar[i];
+      if (!(w > 0)) continue;
+      const k = data.k0 + i - s;
+      for (let j = 0; j < K; j++) {
+        const tj = valueAt(vectors[j], k);
+        if (tj === 0) continue;
+        sums.tf[j][si] += w * data.flux[i] * tj;
+        for (let a = 0; a < P; a++) sums.tp[j * P + a][si] += w * poly[a][i] * tj;
+        for (let q = j; q < K; q++) {
+          const arr = sums.tt[j * K + q];
+          if (arr) arr[si] += w * tj * valueAt(vectors[q], k);
+        }
+      }
+    }
+  }
+  return sums;
+}
+
+/** Template spectra cached per (family key, FFT size, segment start). */
+interface TemplateSpectra {
+  single: HalfSpectrum[];
+  products: (HalfSpectrum | null)[];
+}
+const templateCache = new Map<string, TemplateSpectra>();
+const TEMPLATE_CACHE_MAX = 48;
+const planCache = new Map<number, CorrelationPlan>();
+
+function planOf(L: number): CorrelationPlan {
+  let p = planCache.get(L);
+  if (!p) {
+    p = new CorrelationPlan(L);
+    planCache.set(L, p);
+  }
+  return p;
+}
+
+/** Segment starts are rounded down to multiples of this (pixels), so nearby spectra share cached template spectra. */
+const SEGMENT_BLOCK = 128;
+
+function templateSpectra(key: string, vectors: RestArray[], R0: number, plan: CorrelationPlan): TemplateSpectra {
+  const L = plan.size;
+  const ck = `${key}|${L}|${R0}`;
+  const hit = templateCache.get(ck);
+  if (hit) return hit;
+  const K = vectors.length;
+  const seg = (f: (k: number) => number) => {
+    const a = new Float64Array(L);
+    for (let j = 0; j < L; j++) a[j] = f(R0 + j);
+    return a;
+  };
+  const signals: Float64Array[] = [];
+  for (let j = 0; j < K; j++) signals.push(seg((k) => valueAt(vectors[j], k)));
+  const prodIdx: number[] = [];
+  for (let j = 0; j < K; j++)
+    for (let q = j; q < K; q++) {
+      if (!overlaps(vectors[j], vectors[q])) {
+        prodIdx.push(-1);
+        continue;
+      }
+      prodIdx.push(signals.length);
+      const a = signals[j];
+      const b = signals[q];
+      const p = new Float64Array(L);
+      for (let m = 0; m < L; m++) p[m] = a[m] * b[m];
+      signals.push(p);
+    }
+  const spectra: HalfSpectrum[] = [];
+  for (let i = 0; i < signals.length; i += 2) {
+    const [A, B] = plan.forwardPair(signals[i], signals[i + 1]);
+    spectra.push(A);
+    if (i + 1 < signals.length) spectra.push(B);
+  }
+  const products: (HalfSpectrum | null)[] = new Array(K * K).fill(null);
+  let c = 0;
+  for (let j = 0; j < K; j++)
+    for (let q = j; q < K; q++) {
+      const idx = prodIdx[c++];
+      if (idx >= 0) products[j * K + q] = spectra[idx];
+    }
+  const out = { single: spectra.slice(0, K), products };
+  if (templateCache.size >= TEMPLATE_CACHE_MAX) templateCache.delete(templateCache.keys().next().value as string);
+  templateCache.set(ck, out);
+  return out;
+}
+
+/**
+ * Data-side spectra (w f, w p_0 .. w p_(P-1)) for one FFT size; compute once
+ * per spectrum and share across families with the same size.
+ */
+export interface DataSpectra {
+  L: number;
+  wf: HalfSpectrum;
+  wp: HalfSpectrum[];
+}
+
+export function dataSpectra(data: ScanData, P: number, L: number): DataSpectra {
+  const plan = planOf(L);
+  const n = data.flux.length;
+  const poly = polyBasis(n, P);
+  const signals: Float64Array[] = [];
+  const wf = new Float64Array(n);
+  for (let i = 0; i < n; i++) wf[i] = data.ivar[i] > 0 ? data.ivar[i] * data.flux[i] : 0;
+  signals.push(wf);
+  for (let a = 0; a < P; a++) {
+    const s = new Float64Array(n);
+    for (let i = 0; i < n; i++) s[i] = data.ivar[i] > 0 ? data.ivar[i] * poly[a][i] : 0;
+    signals.push(s);
+  }
+  const spectra: HalfSpectrum[] = [];
+  for (let i = 0; i < signals.length; i += 2) {
+    const [A, B] = plan.forwardPair(signals[i], signals[i + 1]);
+    spectra.push(A);
+    if (i + 1 < signals.length) spectra.push(B);
+  }
+  return { L, wf: spectra[0], wp: spectra.slice(1, 1 + P) };
+}
+
+/** FFT size needed for a scan of nShift shifts over n data pixels. */
+export function fftSizeFor(n: number, nShift: number): number {
+  return nextPow2(n + nShift + SEGMENT_BLOCK);
+}
+
+/**
+ * Sums by FFT. `key` names the vector set for the template cache (the same key
+ * must always mean the same vectors). `ds` may be passed in to share data
+ * spectra between families; it must have been made with the same P and size.
+ */
+export function scanSumsFFT(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, key: string, ds?: DataSpectra): ScanSums {
+  const n = data.flux.length;
+  const K = vectors.length;
+  const nShift = sMax - sMin + 1;
+  const L = ds?.L ?? fftSizeFor(n, nShift);
+  if (L < n + nShift + SEGMENT_BLOCK - 1) throw new Error('scanSumsFFT: FFT size too small for the range');
+  const plan = planOf(L);
+  const d = ds ?? dataSpectra(data, P, L);
+  const R0 = Math.floor((data.k0 - sMax) / SEGMENT_BLOCK) * SEGMENT_BLOCK;
+  const ts = templateSpectra(key, vectors, R0, plan);
+  const sums = emptySums(sMin, nShift, K, P, vectors);
+
+  // List every correlation to compute: (data spectrum, template spectrum, destination).
+  const jobs: { X: HalfSpectrum; Y: HalfSpectrum; dest: Float64Array }[] = [];
+  for (let j = 0; j < K; j++) {
+    if (!reaches(vectors[j], data, sMin, sMax)) continue;
+    jobs.push({ X: d.wf, Y: ts.single[j], dest: sums.tf[j] });
+    for (let a = 0; a < P; a++) jobs.push({ X: d.wp[a], Y: ts.single[j], dest: sums.tp[j * P + a] });
+    for (let q = j; q < K; q++) {
+      const prod = ts.products[j * K + q];
+      const dest = sums.tt[j * K + q];
+      if (prod && dest && reaches(vectors[q], data, sMin, sMax)) jobs.push({ X: d.wp[0], Y: prod, dest });
+    }
+  }
+  // p_0 = 1, so sum w t_j t_k uses the w p_0 spectrum.
+  const out1 = new Float64Array(L);
+  const out2 = new Float64Array(L);
+  const mAt0 = data.k0 - sMin - R0; // m for s = sMin; m decreases by 1 per shift
+  for (let i = 0; i < jobs.length; i += 2) {
+    const a = jobs[i];
+    const b = jobs[i + 1];
+    plan.correlatePair(a.X, a.Y, out1, b?.X, b?.Y, b ? out2 : undefined);
+    for (let si = 0; si < nShift; si++) a.dest[si] = out1[mAt0 - si];
+    if (b) for (let si = 0; si < nShift; si++) b.dest[si] = out2[mAt0 - si];
+  }
+  return sums;
+}
+
+/** Shift-independent pieces of the normal equations. */
+export interface ScanConstants {
+  /** sum w f^2 */
+  fwf: number;
+  /** sum w f p_a */
+  pf: Float64Array;
+  /** sum w p_a p_b, row-major P x P */
+  pp: Float64Array;
+  /** good pixels */
+  nGood: number;
+  /** sum w (sets the scale below which a template column counts as empty) */
+  sumW: number;
+}
+
+export function scanConstants(data: ScanData, P: number): ScanConstants {
+  const n = data.flux.length;
+  const poly = polyBasis(n, P);
+  let fwf = 0;
+  let nGood = 0;
+  let sumW = 0;
+  const pf = new Float64Array(P);
+  const pp = new Float64Array(P * P);
+  for (let i = 0; i < n; i++) {
+    const w = data.ivar[i];
+    if (!(w > 0)) continue;
+    nGood++;
+    sumW += w;
+    const f = data.flux[i];
+    fwf += w * f * f;
+    for (let a = 0; a < P; a++) {
+      pf[a] += w * f * poly[a][i];
+      for (let b = 0; b < P; b++) pp[a * P + b] += w * poly[a][i] * poly[b][i];
+    }
+  }
+  return { fwf, pf, pp, nGood, sumW };
+}
+
+export interface ScanResult {
+  sMin: number;
+  /** chi2 at each shift. */
+  chi2: Float64Array;
+  /** Number of non-zero template amplitudes at each shift. */
+  nActive: Uint8Array;
+}
+
+/** Solve the normal equations at every shift (non-negative template amplitudes). */
+export function chi2FromSums(sums: ScanSums, c: ScanConstants): ScanResult {
+  const { K, P, nShift } = sums;
+  const n = P + K;
+  const M = new Float64Array(n * n);
+  const b = new Float64Array(n);
+  const x = new Float64Array(n);
+  const work = makeNnlsWork(n);
+  const chi2 = new Float64Array(nShift);
+  const nActive = new Uint8Array(nShift);
+  for (let a = 0; a < P; a++) {
+    b[a] = c.pf[a];
+    for (let q = 0; q < P; q++) M[a * n + q] = c.pp[a * P + q];
+  }
+  const tiny = 1e-10 * Math.max(c.sumW, 1e-300);
+  const usable = (j: number) => j < P || M[j * n + j] > tiny;
+  for (let si = 0; si < nShift; si++) {
+    for (let j = 0; j < K; j++) {
+      const r = P + j;
+      b[r] = sums.tf[j][si];
+      for (let a = 0; a < P; a++) {
+        const v = sums.tp[j * P + a][si];
+        M[r * n + a] = v;
+        M[a * n + r] = v;
+      }
+      for (let q = j; q < K; q++) {
+        const arr = sums.tt[j * K + q];
+        const v = arr ? arr[si] : 0;
+        M[r * n + P + q] = v;
+        M[(P + q) * n + r] = v;
+      }
+    }
+    const explained = nnlsNormal(M, b, n, P, usable, x, work);
+    chi2[si] = c.fwf - explained;
+    let act = 0;
+    for (let j = P; j < n; j++) if (x[j] > 0) act++;
+    nActive[si] = act;
+  }
+  return { sMin: sums.sMin, chi2, nActive };
+}
+
+/** Chi-square at every shift sMin..sMax by FFT correlations. */
+export function scanFFT(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, key: string, ds?: DataSpectra): ScanResult {
+  return chi2FromSums(scanSumsFFT(data, vectors, sMin, sMax, P, key, ds), scanConstants(data, P));
+}
+
+/** Chi-square at every shift by direct sums (slow; for tests). */
+export function scanDirect(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number): ScanResult {
+  return chi2FromSums(scanSumsDirect(data, vectors, sMin, sMax, P), scanConstants(data, P));
+}

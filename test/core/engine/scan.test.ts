@@ -1,0 +1,74 @@
+import { describe, expect, it } from 'vitest';
+import { chi2FromSums, polyBasis, scanConstants, scanDirect, scanFFT, scanSumsDirect, scanSumsFFT, type ScanData } from '../../../src/core/engine/scan';
+import { binRest, withSupport } from '../../../src/core/engine/restArray';
+import { templateFamilies } from '../../../src/core/engine/templates';
+import { makeRng } from './synth';
+
+function randomData(n: number, k0: number, seed: number): ScanData {
+  const r = makeRng(seed);
+  const flux = Float64Array.from({ length: n }, () => 1 + r.gauss());
+  const ivar = Float64Array.from({ length: n }, () => (r.next() < 0.05 ? 0 : 0.5 + r.next()));
+  return { k0, flux, ivar };
+}
+
+describe('scan', () => {
+  it('FFT sums equal the direct sums to 1e-9 relative (quasar scan vectors, binned by 2)', () => {
+    const fam = templateFamilies().find((f) => f.id === 'qso')!;
+    const vecs = fam.scanVectors.map((v) => binRest(v, 2));
+    const data = randomData(700, 17790, 3);
+    const sMin = 0;
+    const sMax = 1800;
+    const fft = scanSumsFFT(data, vecs, sMin, sMax, 3, 'test-qso@2');
+    const dir = scanSumsDirect(data, vecs, sMin, sMax, 3);
+    const all = (s: typeof fft) => [...s.tf, ...s.tp, ...s.tt.filter((a): a is Float64Array => a !== null)];
+    const A = all(fft);
+    const B = all(dir);
+    expect(A.length).toBe(B.length);
+    let scale = 0;
+    for (const arr of B) for (const v of arr) scale = Math.max(scale, Math.abs(v));
+    let worst = 0;
+    for (let q = 0; q < A.length; q++) for (let s = 0; s < A[q].length; s++) worst = Math.max(worst, Math.abs(A[q][s] - B[q][s]));
+    // FFT round-off relative to the largest sum (keep-the-slow-version rule)
+    expect(worst / scale).toBeLessThan(1e-9);
+    const c = scanConstants(data, 3);
+    const chiF = chi2FromSums(fft, c).chi2;
+    const chiD = chi2FromSums(dir, c).chi2;
+    for (let s = 0; s < chiF.length; s += 37) expect(chiF[s]).toBeCloseTo(chiD[s], 5);
+  });
+
+  it('scanDirect with one template and no polynomial is the linear-amplitude formula of the reference sheet (sec. 5)', () => {
+    // f = (1,3,2), t = (1,2,3), sigma = (1,1,2): chi2_min = 1.0344827586 [C]
+    const t = withSupport(100, Float64Array.from([1, 2, 3]));
+    const data: ScanData = { k0: 100, flux: Float64Array.from([1, 3, 2]), ivar: Float64Array.from([1, 1, 0.25]) };
+    const r = scanDirect(data, [t], 0, 0, 0);
+    expect(r.chi2[0]).toBeCloseTo(1.0344827586, 9);
+  });
+
+  it('finds the shift of an injected template (FFT and direct agree on the minimum)', () => {
+    const line = new Float64Array(300);
+    for (let j = 0; j < 300; j++) line[j] = Math.exp(-0.5 * ((j - 150) / 3) ** 2) + 0.6 * Math.exp(-0.5 * ((j - 60) / 3) ** 2);
+    const t = withSupport(1000, line);
+    const r = makeRng(11);
+    const n = 400;
+    const trueShift = 137;
+    const flux = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      const k = 1200 + i - trueShift - 1000;
+      flux[i] = 3 + 0.001 * i + (k >= 0 && k < 300 ? 2 * line[k] : 0) + 0.2 * r.gauss();
+    }
+    const data: ScanData = { k0: 1200, flux, ivar: new Float64Array(n).fill(25) };
+    const a = scanFFT(data, [t], 0, 300, 2, 'test-inject');
+    const b = scanDirect(data, [t], 0, 300, 2);
+    const argmin = (x: Float64Array) => x.indexOf(Math.min(...x));
+    expect(a.sMin + argmin(a.chi2)).toBe(trueShift);
+    expect(argmin(a.chi2)).toBe(argmin(b.chi2));
+  });
+
+  it('polyBasis gives Legendre P0..P2 at the ends and middle', () => {
+    // P2(x) = (3x^2 - 1)/2 (Legendre, standard)
+    const p = polyBasis(5, 3);
+    expect(Array.from(p[1])).toEqual([-1, -0.5, 0, 0.5, 1]);
+    expect(p[2][0]).toBeCloseTo(1, 14);
+    expect(p[2][2]).toBeCloseTo(-0.5, 14);
+  });
+});

@@ -1,4 +1,5 @@
 import { describe, expect, it, vi } from 'vitest';
+import fc from 'fast-check';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { gzipSync } from 'fflate';
@@ -125,5 +126,36 @@ describe('binaryKind(bytes)', () => {
   it('flags UTF-16 and control-character soup', () => {
     expect(binaryKind(new Uint8Array([0xff, 0xfe, 0x34, 0x00]))).toMatch(/UTF-16/);
     expect(binaryKind(new Uint8Array(200).fill(1))).toBe('binary data (many control characters)');
+  });
+});
+
+describe('readSpectrum on arbitrary input', () => {
+  // Property: whatever the bytes, the outcome is a spectrum or a SpectrumReadError from a reader,
+  // never an exception of another kind and never an "internal reader error" (which would be a bug).
+  const check = (bytes: Uint8Array) => {
+    const r = tryReadSpectrum(bytes, 'fuzz');
+    if (!r.ok) {
+      expect(r.error).toBeInstanceOf(SpectrumReadError);
+      expect(r.error.message).not.toMatch(/internal reader error/);
+    } else {
+      expect(r.spectrum.wavelengthA.length).toBeGreaterThanOrEqual(2);
+    }
+  };
+  it('random bytes', () => {
+    fc.assert(fc.property(fc.uint8Array({ maxLength: 400 }), check), { numRuns: 300 });
+  });
+  it('random text made of the characters of spectrum tables', () => {
+    const unit = fc.constantFrom('0', '1', '5', '.', '-', 'e', ',', ';', ' ', '\t', '\n', '\r', '#', '"', 'n', 'a', 'w', 'f', 'x');
+    fc.assert(fc.property(fc.string({ unit, maxLength: 300 }), (t) => check(enc(t))), { numRuns: 500 });
+  });
+  it('random headers over valid numbers', () => {
+    const name = fc.constantFrom('wave', 'loglam', 'flux', 'ivar', 'err', 'mask', 'sky', 'wavelength_air_nm', 'f_lambda', '', '"x, y"');
+    fc.assert(
+      fc.property(fc.array(name, { minLength: 1, maxLength: 5 }), fc.array(fc.double({ min: 0.1, max: 9000, noNaN: true }), { minLength: 1, maxLength: 30 }), (names, vals) => {
+        const rows = vals.map((v, i) => names.map((_, j) => String(j === 0 ? 3 + i * 0.001 : v)).join(','));
+        check(enc([names.join(','), ...rows].join('\n')));
+      }),
+      { numRuns: 300 },
+    );
   });
 });

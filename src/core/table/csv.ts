@@ -37,17 +37,48 @@ export interface CsvOptions {
   headerBlock?: boolean;
 }
 
+/** Text pieces of a table written row by row: begin() + row()... + end() is the whole file. */
+export interface TableWriter {
+  begin(): string;
+  row(row: Readonly<Record<string, unknown>>): string;
+  end(): string;
+}
+
+/**
+ * A row's cell for a column: rows are pre-formatted strings (rows.ts); a missing
+ * cell is empty; anything else is a caller's bug and throws.
+ */
+export function rowCell(row: Readonly<Record<string, unknown>>, name: string): string {
+  const v = row[name];
+  if (v === undefined || v === null) return '';
+  if (typeof v !== 'string') throw new TypeError(`cell ${name} must be a formatted string, got ${typeof v}`);
+  return v;
+}
+
+/** CSV written row by row, for batches too large to hold (same bytes as catalogueCsv). */
+export function csvWriter(columns: readonly ColumnDef[], meta: ExportMeta, options: CsvOptions = {}): TableWriter {
+  return {
+    begin() {
+      const lines: string[] = [];
+      if (options.headerBlock ?? true) {
+        for (const [k, v] of metaEntries(meta, columns)) lines.push(`# ${k}: ${v}`);
+      }
+      lines.push(columns.map((c) => quoteCsv(c.name)).join(','));
+      return lines.map((l) => l + '\r\n').join('');
+    },
+    row(row) {
+      return columns.map((c) => quoteCsv(guardCell(c, rowCell(row, c.name)))).join(',') + '\r\n';
+    },
+    end() {
+      return '';
+    },
+  };
+}
+
 /** The catalogue as CSV text: optional comment block, column names, one line per row, CRLF. */
 export function catalogueCsv(rows: readonly TableRow[], columns: readonly ColumnDef[], meta: ExportMeta, options: CsvOptions = {}): string {
-  const lines: string[] = [];
-  if (options.headerBlock ?? true) {
-    for (const [k, v] of metaEntries(meta, columns)) lines.push(`# ${k}: ${v}`);
-  }
-  lines.push(columns.map((c) => quoteCsv(c.name)).join(','));
-  for (const row of rows) {
-    lines.push(columns.map((c) => quoteCsv(guardCell(c, row[c.name] ?? ''))).join(','));
-  }
-  return lines.map((l) => l + '\r\n').join('');
+  const w = csvWriter(columns, meta, options);
+  return w.begin() + rows.map((r) => w.row(r)).join('') + w.end();
 }
 
 /** A CSV that cannot be read back as a catalogue. */

@@ -11,7 +11,18 @@ export {
 export { formatCell, cellValue, type CellValue } from './formatCell';
 export { exportCaution, metaEntries, type ExportMeta } from './meta';
 export { automaticRow, catalogueRow } from './rows';
-export { catalogueCsv, parseCatalogueCsv, guardCell, quoteCsv, CatalogueParseError, type CsvOptions, type ParsedCatalogue } from './csv';
-export { catalogueJson, catalogueJsonText, type CatalogueJson } from './json';
+export {
+  catalogueCsv,
+  csvWriter,
+  parseCatalogueCsv,
+  guardCell,
+  quoteCsv,
+  CatalogueParseError,
+  type CsvOptions,
+  type ParsedCatalogue,
+  type TableWriter,
+} from './csv';
+export { catalogueJson, catalogueJsonText, jsonWriter, type CatalogueJson } from './json';
+export { catalogueTableWriter, type TableFormat, type TableWriterOptions } from './tableWriter';
 export { catalogueVotable, xmlEscape } from './votable';
 export { catalogueFits, FITS_INT_NULL } from './fitsTable';

@@ -12,6 +12,8 @@ export interface ExportMeta {
   cosmology: CosmologyParams;
   /** Creation time, ISO 8601 (passed in: core never reads the clock). */
   createdAt: string;
+  /** More provenance, e.g. { shard: '2/8' }; written after `created`. */
+  extra?: Readonly<Record<string, string>>;
 }
 
 /** The caution every export carries: automatic redshifts nobody reviewed are hypotheses. */
@@ -43,6 +45,7 @@ export function metaEntries(meta: ExportMeta, columns: readonly ColumnDef[]): Ar
     ['template_set', oneLine(meta.templateSet)],
     ['cosmology', describeCosmology(meta.cosmology)],
     ['created', oneLine(meta.createdAt)],
+    ...Object.entries(meta.extra ?? {}).map(([k, v]): [string, string] => [oneLine(k).replace(/[:\s]+/g, '_'), oneLine(v)]),
     ['caution', exportCaution(columns)],
     ['derived', derivedNote(columns)],
   ];

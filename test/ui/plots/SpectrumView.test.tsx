@@ -28,7 +28,7 @@ beforeEach(() => {
       contexts.push(self.__rec);
     }
     return self.__rec as unknown as CanvasRenderingContext2D;
-  } as typeof HTMLCanvasElement.prototype.getContext);
+  } as unknown as typeof HTMLCanvasElement.prototype.getContext);
 });
 afterEach(() => {
   cleanup();

@@ -3,6 +3,8 @@ import { catalogueFits, fitsAscii, FITS_INT_NULL } from '../../../src/core/table
 import { CATALOGUE_COLUMNS } from '../../../src/core/table/columns';
 import { catalogueRow } from '../../../src/core/table/rows';
 import { DEFAULT_COSMOLOGY } from '../../../src/core/cosmology';
+import { walkHdus } from '../../../src/core/io/fits/hdus';
+import { tableColumns } from '../../../src/core/io/fits/table';
 import { decision, failedResult, META, okResult } from './fixtures';
 
 /**
@@ -156,6 +158,14 @@ describe('catalogueFits(rows, columns, meta)', () => {
     expect(back[1].noise_estimated).toBeNull();
     const i = CATALOGUE_COLUMNS.findIndex((c) => c.name === 'n_pix');
     expect(Number(value(table, `TNULL${i + 1}`))).toBe(FITS_INT_NULL);
+  });
+  it("is accepted by the project's own FITS reader (HDU walk, column layout checked against NAXIS1)", () => {
+    const found = walkHdus(bytes, 'catalogue.fits');
+    expect(found.map((h) => h.kind)).toEqual(['empty', 'bintable']);
+    expect(found[1].extname).toBe('CATALOGUE');
+    const cols = tableColumns(found[1], 'catalogue.fits');
+    expect(cols.map((c) => c.name)).toEqual(CATALOGUE_COLUMNS.map((c) => c.name));
+    expect(cols.find((c) => c.name === 'n_pix')?.tnull).toBe(FITS_INT_NULL);
   });
   it('writes an empty catalogue as a valid zero-row table', () => {
     const h = readHdus(catalogueFits([], CATALOGUE_COLUMNS, META));

@@ -1,0 +1,73 @@
+/** Download the catalogue: format, which rows, and a reminder of what the columns mean. */
+import { useState } from 'react';
+import { describeCosmology } from '../../core/cosmology';
+import { useServices, useSessionSnapshot } from '../state/SessionContext';
+import { Overlay } from '../panels/Overlay';
+import { buildExport, EXPORT_FORMATS, type ExportFormat, type ExportScope } from './buildExport';
+import { downloadBlob, stamp } from '../download';
+
+export function ExportPanel({ onClose }: { onClose: () => void }) {
+  const { session } = useServices();
+  const snap = useSessionSnapshot();
+  const [format, setFormat] = useState<ExportFormat>('csv');
+  const [scope, setScope] = useState<ExportScope>('all');
+  const [status, setStatus] = useState<string | null>(null);
+  const unreviewed = snap.rows.filter((r) => !r.decision || r.decision.state === 'unreviewed').length;
+
+  const run = async () => {
+    setStatus('Building the table…');
+    try {
+      const built = await buildExport({ rows: snap.rows, getResult: (k) => session.getResult(k) }, format, snap.cosmology, scope);
+      const f = EXPORT_FORMATS.find((x) => x.id === format)!;
+      downloadBlob(built.data as BlobPart, `shiftmark-catalogue-${stamp()}.${f.ext}`, f.mime);
+      setStatus(`Saved ${built.rowCount} rows.${built.notFitted ? ` ${built.notFitted} files not yet fitted were left out.` : ''}`);
+    } catch (e) {
+      setStatus(`Export failed: ${(e as Error)?.message ?? e}`);
+    }
+  };
+
+  return (
+    <Overlay title="Export catalogue" onClose={onClose} testId="export-panel">
+      <form
+        onSubmit={(e) => {
+          e.preventDefault();
+          void run();
+        }}
+      >
+        <fieldset>
+          <legend>Format</legend>
+          {EXPORT_FORMATS.map((f) => (
+            <label key={f.id} className="radio">
+              <input type="radio" name="format" value={f.id} checked={format === f.id} onChange={() => setFormat(f.id)} /> {f.label}
+            </label>
+          ))}
+        </fieldset>
+        <fieldset>
+          <legend>Rows</legend>
+          <label className="radio">
+            <input type="radio" name="scope" checked={scope === 'all'} onChange={() => setScope('all')} /> Every spectrum ({snap.rows.length})
+          </label>
+          <label className="radio">
+            <input type="radio" name="scope" checked={scope === 'reviewed'} onChange={() => setScope('reviewed')} /> Reviewed only (
+            {snap.rows.length - unreviewed})
+          </label>
+        </fieldset>
+        <p className="muted small">
+          Columns: the automatic fit (as the command line writes it), the review (final z and class, state, how set, grades, reviewer, time,
+          note) and derived quantities for {describeCosmology(snap.cosmology)}.
+        </p>
+        {scope === 'all' && unreviewed > 0 && (
+          <p className="caution">{unreviewed} rows are not reviewed: their redshifts are automatic hypotheses (review_state = unreviewed).</p>
+        )}
+        <button type="submit" className="primary" data-testid="export-download">
+          Download
+        </button>
+        {status && (
+          <p role="status" data-testid="export-status">
+            {status}
+          </p>
+        )}
+      </form>
+    </Overlay>
+  );
+}

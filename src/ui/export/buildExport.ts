@@ -1,0 +1,86 @@
+/**
+ * The catalogue from the browser: the same rows and writers (src/core/table)
+ * as the command line, with review and derived columns added. Results are
+ * read from the database one at a time, so a large batch does not sit in
+ * memory all at once.
+ */
+import type { CosmologyParams, FitResult, ReviewDecision } from '../../core/types';
+import {
+  CATALOGUE_COLUMNS,
+  catalogueRow,
+  catalogueCsv,
+  catalogueJsonText,
+  catalogueVotable,
+  catalogueFits,
+  type ExportMeta,
+  type TableRow,
+} from '../../core/table';
+import { SOFTWARE_VERSION } from '../version';
+
+export type ExportFormat = 'csv' | 'csv-plain' | 'json' | 'fits' | 'votable';
+
+export const EXPORT_FORMATS: readonly { id: ExportFormat; label: string; ext: string; mime: string }[] = [
+  { id: 'csv', label: 'CSV with a header block (provenance and cosmology as # lines)', ext: 'csv', mime: 'text/csv' },
+  { id: 'csv-plain', label: 'CSV, column names only (RFC 4180, for strict readers)', ext: 'csv', mime: 'text/csv' },
+  { id: 'json', label: 'JSON', ext: 'json', mime: 'application/json' },
+  { id: 'fits', label: 'FITS binary table', ext: 'fits', mime: 'application/fits' },
+  { id: 'votable', label: 'VOTable 1.4', ext: 'vot', mime: 'application/x-votable+xml' },
+];
+
+export type ExportScope = 'all' | 'reviewed';
+
+export interface ExportSource {
+  /** File keys in batch order with their decisions. */
+  rows: readonly { key: string; decision?: ReviewDecision }[];
+  getResult: (key: string) => Promise<FitResult | undefined>;
+}
+
+export interface BuiltExport {
+  data: string | Uint8Array;
+  rowCount: number;
+  /** Files left out because they have no fit yet. */
+  notFitted: number;
+}
+
+export async function buildExport(
+  source: ExportSource,
+  format: ExportFormat,
+  cosmology: CosmologyParams,
+  scope: ExportScope = 'all',
+  createdAt = new Date().toISOString(),
+): Promise<BuiltExport> {
+  const rows: TableRow[] = [];
+  let notFitted = 0;
+  let templateSet = '';
+  for (const r of source.rows) {
+    if (scope === 'reviewed' && (!r.decision || r.decision.state === 'unreviewed')) continue;
+    const result = await source.getResult(r.key);
+    if (!result) {
+      notFitted++;
+      continue;
+    }
+    if (!templateSet && result.status === 'ok') templateSet = result.templateSet;
+    rows.push(catalogueRow(result, r.decision, cosmology));
+  }
+  const meta: ExportMeta = { software: 'Shiftmark', version: SOFTWARE_VERSION, templateSet: templateSet || 'none (no spectrum fitted)', cosmology, createdAt };
+  const cols = CATALOGUE_COLUMNS;
+  let data: string | Uint8Array;
+  switch (format) {
+    case 'csv':
+      data = catalogueCsv(rows, cols, meta, { headerBlock: true });
+      break;
+    case 'csv-plain':
+      data = catalogueCsv(rows, cols, meta, { headerBlock: false });
+      break;
+    case 'json':
+      data = catalogueJsonText(rows, cols, meta);
+      break;
+    case 'fits':
+      data = catalogueFits(rows, cols, meta);
+      break;
+    case 'votable':
+      data = catalogueVotable(rows, cols, meta);
+      break;
+  }
+  return { data, rowCount: rows.length, notFitted };
+}

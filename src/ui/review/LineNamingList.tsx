@@ -1,0 +1,89 @@
+/**
+ * After a click on a feature: the catalogue lines it could be, with the
+ * redshift each implies and how many other catalogue lines would then fall
+ * on real features, best first. Number keys or arrows + Enter choose.
+ */
+import { useEffect, useRef, useState, type KeyboardEvent } from 'react';
+import type { LineSuggestion } from '../../core/engine/identify';
+import type { FeatureAnswer } from '../../worker/fitWorkerApi';
+import { fmtNum, fmtZ } from '../format';
+
+/** Best first: more supporting lines first, the engine's order among equals. */
+export function rankSuggestions(s: readonly LineSuggestion[]): LineSuggestion[] {
+  return s.map((x, i) => ({ x, i })).sort((a, b) => b.x.supporting - a.x.supporting || a.i - b.i).map((o) => o.x);
+}
+
+export interface LineNamingListProps {
+  answer: FeatureAnswer;
+  onChoose: (s: LineSuggestion) => void;
+  onClose: () => void;
+  busy?: boolean;
+}
+
+export function LineNamingList({ answer, onChoose, onClose, busy = false }: LineNamingListProps) {
+  const ranked = rankSuggestions(answer.suggestions);
+  const [active, setActive] = useState(0);
+  const list = useRef<HTMLUListElement>(null);
+  useEffect(() => {
+    setActive(0);
+    list.current?.focus();
+  }, [answer]);
+
+  if (!answer.feature) {
+    return (
+      <section className="line-naming" aria-label="Name a line" data-testid="line-naming">
+        <p>No clear feature there. Click closer to a peak or dip, or type another wavelength.</p>
+        <button type="button" onClick={onClose}>
+          Close
+        </button>
+      </section>
+    );
+  }
+  const f = answer.feature;
+  const onKey = (e: KeyboardEvent) => {
+    if (e.key === 'ArrowDown') setActive((a) => Math.min(ranked.length - 1, a + 1));
+    else if (e.key === 'ArrowUp') setActive((a) => Math.max(0, a - 1));
+    else if (e.key === 'Enter' && ranked[active]) onChoose(ranked[active]);
+    else if (/^[1-9]$/.test(e.key) && ranked[Number(e.key) - 1]) onChoose(ranked[Number(e.key) - 1]);
+    else if (e.key === 'Escape') onClose();
+    else return;
+    e.preventDefault();
+    e.stopPropagation();
+  };
+  return (
+    <section className="line-naming" aria-label="Name a line" data-testid="line-naming">
+      <p>
+        {f.kind === 'emission' ? 'Emission' : 'Absorption'} feature at {fmtNum(f.centreA, 1)} ± {fmtNum(f.centreErrA, 1)} Å (S/N{' '}
+        {fmtNum(f.snr, 1)}). Which line is it?
+      </p>
+      {ranked.length === 0 ? (
+        <p>No catalogue line of this kind fits a positive redshift here.</p>
+      ) : (
+        <ul role="listbox" aria-label="Possible lines" tabIndex={0} ref={list} onKeyDown={onKey} aria-activedescendant={`line-option-${active}`} aria-busy={busy}>
+          {ranked.slice(0, 20).map((s, i) => (
+            <li
+              key={`${s.lineId}-${i}`}
+              id={`line-option-${i}`}
+              role="option"
+              aria-selected={i === active}
+              className={i === active ? 'current' : undefined}
+              onClick={() => onChoose(s)}
+              data-testid="line-option"
+            >
+              <span className="opt-key">{i < 9 ? i + 1 : ''}</span>
+              <span className="opt-label">{s.label}</span>
+              <span className="opt-rest">{fmtNum(s.restA, 1)} Å</span>
+              <span className="opt-z">z = {fmtZ(s.z)}</span>
+              <span className="opt-support">
+                {s.supporting} other line{s.supporting === 1 ? '' : 's'} agree
+              </span>
+            </li>
+          ))}
+        </ul>
+      )}
+      <button type="button" onClick={onClose}>
+        Cancel
+      </button>
+    </section>
+  );
+}

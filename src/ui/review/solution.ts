@@ -1,0 +1,93 @@
+/**
+ * The solution on screen for one spectrum: where it came from and what a
+ * decision built from it records. Pure, so the decision rules are tested
+ * without rendering.
+ */
+import type { FitResult, Grade, HowSet, LineMeasurement, ReviewDecision, SpectrumClass } from '../../core/types';
+
+export interface Solution {
+  z: number;
+  /** 1-sigma error; NaN when the way it was set gives none. */
+  zErr: number;
+  cls: SpectrumClass;
+  howSet: HowSet;
+  /** Index into the automatic candidates when picked from them (0 = the automatic best). */
+  candidateIndex: number | null;
+  lineId?: { id: string; observedA: number };
+  /** Line measurements at this solution; null until measured. */
+  lines: LineMeasurement[] | null;
+}
+
+/** The automatic best solution of a fit, or null when the fit failed. */
+export function autoSolution(result: FitResult): Solution | null {
+  if (result.status !== 'ok' || !result.candidates.length) return null;
+  return { z: result.z, zErr: result.zErr, cls: result.class, howSet: 'auto', candidateIndex: 0, lines: result.lines };
+}
+
+/** Solution from the i-th automatic candidate (lines measured later unless it is the best). */
+export function candidateSolution(result: FitResult, i: number): Solution | null {
+  const c = result.candidates[i];
+  if (!c) return null;
+  return { z: c.z, zErr: c.zErr, cls: c.class, howSet: i === 0 ? 'auto' : 'candidate', candidateIndex: i, lines: i === 0 ? result.lines : null };
+}
+
+/** Solution restored from an earlier decision (not for rejections). */
+export function solutionFromDecision(d: ReviewDecision, result: FitResult | null): Solution | null {
+  if (d.state === 'rejected' || d.z === null) return null;
+  const sameAsAuto = result && result.status === 'ok' && d.howSet === 'auto' && d.z === result.z;
+  return {
+    z: d.z,
+    zErr: d.zErr ?? NaN,
+    cls: d.class,
+    howSet: d.howSet,
+    candidateIndex: sameAsAuto ? 0 : null,
+    lineId: d.lineId,
+    lines: sameAsAuto ? result!.lines : null,
+  };
+}
+
+/** Solution from a refit near a chosen z (through a line, a typed value or the fit-quality plot). */
+export function refitSolution(refit: FitResult, howSet: HowSet, fallbackZ: number, fallbackClass: SpectrumClass, lineId?: { id: string; observedA: number }): Solution {
+  const ok = refit.status === 'ok' && Number.isFinite(refit.z);
+  const s: Solution = {
+    z: ok ? refit.z : fallbackZ,
+    zErr: ok ? refit.zErr : NaN,
+    cls: ok ? refit.class : fallbackClass,
+    howSet,
+    candidateIndex: null,
+    lines: ok ? refit.lines : null,
+  };
+  if (lineId) s.lineId = lineId;
+  return s;
+}
+
+/** The decision parts the panel decides; reviewer and time are added when it is stored. */
+export type DecisionDraft = Omit<ReviewDecision, 'reviewer' | 'decidedAt'>;
+
+/** Accept what is shown: 'accepted' when it is the automatic best, 'changed' otherwise. */
+export function acceptDraft(file: string, s: Solution, grade: Grade | null, note: string): DecisionDraft {
+  const d: DecisionDraft = {
+    file,
+    state: s.howSet === 'auto' ? 'accepted' : 'changed',
+    z: s.z,
+    zErr: Number.isFinite(s.zErr) ? s.zErr : null,
+    class: s.cls,
+    reviewerGrade: grade,
+    howSet: s.howSet,
+    note,
+  };
+  if (s.lineId) d.lineId = s.lineId;
+  return d;
+}
+
+/** Reject as unusable: no redshift, class unknown. */
+export function rejectDraft(file: string, grade: Grade | null, note: string): DecisionDraft {
+  return { file, state: 'rejected', z: null, zErr: null, class: 'unknown', reviewerGrade: grade, howSet: 'auto', note };
+}
+
+const GRADE_CYCLE: readonly (Grade | null)[] = [null, 'high', 'medium', 'low', 'none'];
+
+/** Next reviewer grade for the cycle key: unset -> high -> medium -> low -> none -> unset. */
+export function nextGrade(g: Grade | null): Grade | null {
+  return GRADE_CYCLE[(GRADE_CYCLE.indexOf(g) + 1) % GRADE_CYCLE.length];
+}

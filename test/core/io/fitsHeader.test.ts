@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { SpectrumReadError } from '../../../src/core/types';
-import { FitsHeader, parseCard, readHeader } from '../../../src/core/io/fits/header';
+import { FitsHeader, MAX_HEADER_BLOCKS, parseCard, readHeader } from '../../../src/core/io/fits/header';
 import { fitsCard, fitsHeaderBytes } from '../../../src/core/io/fits/write';
 
 /** Catch the SpectrumReadError a call throws. */
@@ -127,5 +127,11 @@ describe('readHeader(bytes, offset, file, hdu)', () => {
     bytes.set(first);
     const e = readError(() => readHeader(bytes, 0, 'cut.fits', 3));
     expect(e.message).toBe('cut.fits (HDU 3, keyword END): no END card: the header runs to the end of the file after 36 cards (truncated block)');
+  });
+
+  it('error: a header with no END within 1000 blocks is refused without parsing the rest', () => {
+    const bytes = new Uint8Array((MAX_HEADER_BLOCKS + 5) * 2880).fill(0x20);
+    const e = readError(() => readHeader(bytes, 0, 'endless.fits', 0));
+    expect(e.message).toBe('endless.fits (HDU 0, keyword END): no END card within the first 36000 cards');
   });
 });

@@ -8,6 +8,8 @@ import { SpectrumReadError } from '../../types';
 export const BLOCK_BYTES = 2880;
 export const CARD_CHARS = 80;
 const CARDS_PER_BLOCK = BLOCK_BYTES / CARD_CHARS;
+/** Headers longer than this (36000 cards, 2.88 MB) are refused rather than parsed card by card. */
+export const MAX_HEADER_BLOCKS = 1000;
 
 /**
  * A parsed value: string (quotes removed, '' unescaped, trailing spaces dropped),
@@ -194,6 +196,9 @@ export function readHeader(bytes: Uint8Array, offset: number, file: string, hdu:
         `no END card: the header runs to the end of the file after ${cards.length} cards${got % BLOCK_BYTES ? ' (truncated block)' : ''}`,
         { hdu, keyword: 'END' },
       );
+    }
+    if (pos - offset >= MAX_HEADER_BLOCKS * BLOCK_BYTES) {
+      throw new SpectrumReadError(file, `no END card within the first ${MAX_HEADER_BLOCKS * CARDS_PER_BLOCK} cards`, { hdu, keyword: 'END' });
     }
     for (let k = 0; k < CARDS_PER_BLOCK; k++) {
       const text = cardAt(bytes, pos + k * CARD_CHARS);

@@ -8,7 +8,7 @@ import { strToU8 } from 'fflate';
 import { createRng, mixSeed } from './prng';
 import { makeGrid, DEFAULT_GRID } from './grid';
 import { airToVacuum } from './airVacuum';
-import { simulateSpectrum, FLUX_UNIT, type SimClass } from './simulateSpectrum';
+import { simulateSpectrum, FLUX_UNIT, type SimClass, type Simulated } from './simulateSpectrum';
 import { drawRedshift } from './simulateBatch';
 import { PLAN, FIELD_CODE, FIELD_RA_DEG, FIELD_DEC_DEG, type SampleLayout } from './samplePlan';
 import { writeTextLayout, type TextLayout } from './sampleText';
@@ -116,9 +116,17 @@ function asWritten(layout: SampleLayout, vacA: number): number {
   return TEXT_LAYOUTS.has(layout) ? Number(vacA.toFixed(3)) : vacA;
 }
 
-export function buildSampleSet(seed: number = SAMPLE_SEED): { files: SampleFile[]; truth: SampleTruthRow[] } {
+export interface SampleSet {
+  files: SampleFile[];
+  truth: SampleTruthRow[];
+  /** The simulated spectra behind the files, keyed by file name (in memory only, for tests). */
+  simulated: Map<string, Simulated>;
+}
+
+export function buildSampleSet(seed: number = SAMPLE_SEED): SampleSet {
   const files: SampleFile[] = [];
   const truth: SampleTruthRow[] = [];
+  const simulated = new Map<string, Simulated>();
   const idRng = createRng(mixSeed(seed, 0x1d5));
   // Invented object ids: field code plus a 4-digit running number with random
   // gaps, dealt out in shuffled order so that the id says nothing about the class.
@@ -152,6 +160,7 @@ export function buildSampleSet(seed: number = SAMPLE_SEED): { files: SampleFile[
     else if (TABLE_LAYOUTS.has(p.layout)) bytes = writeFitsTableLayout(p.layout as 'fits-table-loglam', sim.spectrum, facts);
     else bytes = writeFitsImageLayout(p.layout as 'fits-wave-linear', sim.spectrum, facts, axis!);
     files.push({ name, bytes });
+    simulated.set(name, sim);
     truth.push({
       file: name,
       objectId,
@@ -174,7 +183,7 @@ export function buildSampleSet(seed: number = SAMPLE_SEED): { files: SampleFile[
     truth.push({ file: name, objectId: '', class: '', subtype: '', z: NaN, snr: NaN, layout: 'broken', nPix: 0, waveMinA: NaN, waveMaxA: NaN, air: 0, idInFile: 0, expectedError: b.expected });
   }
   files.push({ name: 'truth.csv', bytes: strToU8(truthCsv(truth)) });
-  return { files, truth };
+  return { files, truth, simulated };
 }
 
 const TRUTH_COLUMNS = ['file', 'object_id', 'class', 'subtype', 'z', 'snr', 'layout', 'n_pix', 'wave_min_a', 'wave_max_a', 'air', 'id_in_file', 'expected_error'] as const;

@@ -60,6 +60,30 @@ describe('sample-spectra/', () => {
     expect(s.mask.some((m) => m === 1) || s.ivar!.some((v) => v === 0)).toBe(true); // bad columns survive
   });
 
+  it('every file gives back the simulated flux and inverse variance', () => {
+    const { simulated } = buildSampleSet(SAMPLE_SEED);
+    for (const t of spectra) {
+      const sim = simulated.get(t.file)!.spectrum;
+      const s = readSpectrum(new Uint8Array(readFileSync(join(dir, t.file))), t.file);
+      let worstFlux = 0;
+      let worstIvar = 0;
+      for (let i = 0; i < t.nPix; i++) {
+        const iv = sim.ivar![i];
+        if (iv === 0) {
+          expect(s.ivar![i]).toBe(0);
+          continue;
+        }
+        // Flux difference in units of the pixel's sigma: text keeps 5 significant digits,
+        // BITPIX 16 quantises to 1/65000 of the range, float32 to 6e-8 relative.
+        worstFlux = Math.max(worstFlux, Math.abs(s.flux[i] - sim.flux[i]) * Math.sqrt(iv));
+        worstIvar = Math.max(worstIvar, Math.abs(s.ivar![i] / iv - 1));
+      }
+      expect(worstFlux, t.file).toBeLessThan(0.02);
+      // 4 significant digits of ivar or error: <= 1e-3 relative.
+      expect(worstIvar, t.file).toBeLessThan(1.1e-3);
+    }
+  });
+
   it.each(broken.map((t) => [t.file, t] as const))('%s is refused with the expected message', (file, t) => {
     const bytes = new Uint8Array(readFileSync(join(dir, file)));
     let err: unknown;

@@ -13,7 +13,7 @@
 import type { LineMeasurement, Spectrum, SpectrumClass } from '../types';
 import { LINES, type CatalogueLine } from '../lines/catalogue';
 import { FWHM_PER_SIGMA, continuumAt, fitGaussLine, fittedFlux, propagateVariance, type GaussFitResult } from './gaussFit';
-import { bestFilterHit, filterAt, fitClippedLine } from './lines/matchedFilter';
+import { bestFilterHit, continuumValue, filterAt, fitClippedContinuum } from './lines/matchedFilter';
 import { lowerIndex, pixelWidthAt, pixelWindow } from './lines/pixelWindow';
 
 /** Speed of light, km/s (exact, SI definition). */
@@ -148,9 +148,9 @@ function measureOne(s: Spectrum, z: number, p: PlannedLine, plan: readonly Plann
   // Starting continuum from the side bands (outer half of the window), clipped.
   const side = (k: number): boolean => Math.abs(win.xA[k] - obsA) > 0.5 * halfA;
   const sideCount = win.xA.reduce((n, x, k) => n + (w[k] > 0 && side(k) ? 1 : 0), 0);
-  const cont = fitClippedLine(win.xA, win.y, w, sideCount >= 3 ? side : () => true, obsA);
+  const cont = fitClippedContinuum(win.xA, win.y, w, sideCount >= 3 ? side : () => true, obsA, 1);
   if (!cont) return null;
-  const resid = win.xA.map((x, k) => win.y[k] - cont.a - cont.b * (x - obsA));
+  const resid = win.xA.map((x, k) => win.y[k] - continuumValue(cont, x));
 
   // Starting Gaussian from a matched filter over the centre search range.
   const sigmas = profile.startFwhmKms.map((f) => Math.max(0.8 * pixA, ((f / C_KMS) * obsA) / FWHM_PER_SIGMA));
@@ -158,12 +158,12 @@ function measureOne(s: Spectrum, z: number, p: PlannedLine, plan: readonly Plann
   if (!start) {
     const kPred = Math.min(win.xA.length - 1, lowerIndex(win.xA, obsA));
     const h = filterAt(win.xA, resid, w, kPred, sigmas[1] ?? sigmas[0]);
-    const err = h.snr !== 0 ? Math.abs(h.amplitude / h.snr) : Math.abs(cont.a) * 1e-3 || 1e-3;
+    const err = h.snr !== 0 ? Math.abs(h.amplitude / h.snr) : Math.abs(cont.coef[0]) * 1e-3 || 1e-3;
     start = { ...h, amplitude: sign * err };
   }
 
   const fit = fitGaussLine(win.xA, win.y, w, {
-    initial: { amplitude: start.amplitude, centre: start.centreA, sigma: start.sigmaA, c0: cont.a, c1: cont.b },
+    initial: { amplitude: start.amplitude, centre: start.centreA, sigma: start.sigmaA, c0: cont.coef[0], c1: cont.coef[1] ?? 0 },
     xRef: obsA,
     centreBounds: [obsA - searchA, obsA + searchA],
     sigmaBounds: [0.3 * pixA, halfA / 2],

@@ -1,61 +1,106 @@
 /**
  * Quick local tools shared by the line measurements and the feature finder:
- * a straight-line continuum from chosen pixels, and a Gaussian matched filter
+ * a low-order polynomial continuum from chosen pixels, and a Gaussian matched filter
  * that gives, at each trial centre, the least-squares amplitude of a fixed-width
  * Gaussian and its signal-to-noise.
  */
 
-export interface LineFit {
-  /** Continuum at xRef, flux unit. */
-  a: number;
-  /** Slope, flux unit per Angstrom. */
-  b: number;
+export interface ContinuumFit {
+  /** Polynomial coefficients in (x - xRef): flux unit, flux unit / A, flux unit / A^2. */
+  coef: number[];
   xRef: number;
   /** Points used. */
   n: number;
 }
 
-/**
- * Weighted least-squares straight line y = a + b (x - xRef) through the points
- * with use(k) true and w > 0 (ordinary normal equations). Falls back to a
- * constant with one distinct x; null with no points.
- */
-export function fitStraightLine(
-  xA: ArrayLike<number>, y: ArrayLike<number>, w: ArrayLike<number>, use: (k: number) => boolean, xRef: number,
-): LineFit | null {
-  let s = 0, sx = 0, sy = 0, sxx = 0, sxy = 0, n = 0;
-  for (let k = 0; k < xA.length; k++) {
-    if (!(w[k] > 0) || !use(k)) continue;
-    const dx = xA[k] - xRef;
-    s += w[k];
-    sx += w[k] * dx;
-    sy += w[k] * y[k];
-    sxx += w[k] * dx * dx;
-    sxy += w[k] * dx * y[k];
-    n++;
+/** Value of a continuum fit at x (Angstrom). */
+export function continuumValue(f: ContinuumFit, x: number): number {
+  const d = x - f.xRef;
+  let v = 0;
+  for (let i = f.coef.length - 1; i >= 0; i--) v = v * d + f.coef[i];
+  return v;
+}
+
+/** Solve a small dense system by Gaussian elimination with partial pivoting; null if singular. */
+function solveSmall(a: number[][], b: number[]): number[] | null {
+  const n = b.length;
+  const m = a.map((row, i) => [...row, b[i]]);
+  for (let c = 0; c < n; c++) {
+    let piv = c;
+    for (let r = c + 1; r < n; r++) if (Math.abs(m[r][c]) > Math.abs(m[piv][c])) piv = r;
+    if (!(Math.abs(m[piv][c]) > 1e-300)) return null;
+    [m[c], m[piv]] = [m[piv], m[c]];
+    for (let r = c + 1; r < n; r++) {
+      const f = m[r][c] / m[c][c];
+      for (let k = c; k <= n; k++) m[r][k] -= f * m[c][k];
+    }
   }
-  if (n === 0) return null;
-  const det = s * sxx - sx * sx;
-  if (n < 2 || !(det > 1e-12 * s * sxx)) return { a: sy / s, b: 0, xRef, n };
-  return { a: (sxx * sy - sx * sxy) / det, b: (s * sxy - sx * sy) / det, xRef, n };
+  const x = new Array<number>(n).fill(0);
+  for (let r = n - 1; r >= 0; r--) {
+    let v = m[r][n];
+    for (let k = r + 1; k < n; k++) v -= m[r][k] * x[k];
+    x[r] = v / m[r][r];
+  }
+  return x;
 }
 
 /**
- * Straight line with iterative clipping: refit three times dropping points more
+ * Weighted least-squares polynomial (degree 0, 1 or 2) in (x - xRef) through
+ * the points with use(k) true and w > 0 (normal equations; x is scaled by the
+ * half-span internally for conditioning). Lowers the degree when the points
+ * cannot carry it; null with no points.
+ */
+export function fitContinuum(
+  xA: ArrayLike<number>, y: ArrayLike<number>, w: ArrayLike<number>, use: (k: number) => boolean, xRef: number,
+  degree: 0 | 1 | 2 = 1,
+): ContinuumFit | null {
+  const idx: number[] = [];
+  let span = 0;
+  for (let k = 0; k < xA.length; k++) {
+    if (w[k] > 0 && use(k)) {
+      idx.push(k);
+      span = Math.max(span, Math.abs(xA[k] - xRef));
+    }
+  }
+  if (idx.length === 0) return null;
+  span = span || 1;
+  for (let deg = Math.min(degree, idx.length - 1); deg >= 0; deg--) {
+    const m = deg + 1;
+    const a = Array.from({ length: m }, () => new Array<number>(m).fill(0));
+    const b = new Array<number>(m).fill(0);
+    for (const k of idx) {
+      const t = (xA[k] - xRef) / span;
+      const pw = [1, t, t * t];
+      for (let i = 0; i < m; i++) {
+        b[i] += w[k] * pw[i] * y[k];
+        for (let j = 0; j < m; j++) a[i][j] += w[k] * pw[i] * pw[j];
+      }
+    }
+    // Reject a nearly singular system (all points at one x, say) and try a lower degree.
+    const sol = solveSmall(a, b);
+    if (sol && sol.every(Number.isFinite) && (deg === 0 || a[m - 1][m - 1] > 1e-10 * a[0][0])) {
+      return { coef: sol.map((c, i) => c / span ** i), xRef, n: idx.length };
+    }
+  }
+  return null;
+}
+
+/**
+ * Continuum with iterative clipping: refit three times dropping points more
  * than clipSigma normalised residuals away (common practice), so that lines
  * and spikes do not drag the continuum.
  */
-export function fitClippedLine(
+export function fitClippedContinuum(
   xA: ArrayLike<number>, y: ArrayLike<number>, w: ArrayLike<number>, use: (k: number) => boolean, xRef: number,
-  clipSigma = 2.5,
-): LineFit | null {
-  let fit = fitStraightLine(xA, y, w, use, xRef);
+  degree: 0 | 1 | 2 = 1, clipSigma = 2.5,
+): ContinuumFit | null {
+  let fit = fitContinuum(xA, y, w, use, xRef, degree);
   let current = use;
   for (let round = 0; round < 3 && fit; round++) {
     const f = fit;
     const limit = clipSigma * noiseScale(xA, y, w, current, f);
-    const keep = (k: number): boolean => use(k) && Math.abs(y[k] - f.a - f.b * (xA[k] - xRef)) * Math.sqrt(w[k]) <= limit;
-    const next = fitStraightLine(xA, y, w, keep, xRef);
+    const keep = (k: number): boolean => use(k) && Math.abs(y[k] - continuumValue(f, xA[k])) * Math.sqrt(w[k]) <= limit;
+    const next = fitContinuum(xA, y, w, keep, xRef, degree);
     if (!next || next.n < Math.max(3, 0.5 * f.n)) break;
     fit = next;
     current = keep;
@@ -64,22 +109,23 @@ export function fitClippedLine(
 }
 
 /**
- * Square root of the reduced chi-square of a continuum line over its points,
- * at least 1: the factor by which the stated noise understates the real
- * scatter (used to inflate matched-filter errors).
+ * Square root of the reduced chi-square of a continuum over its points, at
+ * least 1: the factor by which the stated noise understates the real scatter
+ * (used to inflate matched-filter errors).
  */
 export function noiseScale(
-  xA: ArrayLike<number>, y: ArrayLike<number>, w: ArrayLike<number>, use: (k: number) => boolean, fit: LineFit,
+  xA: ArrayLike<number>, y: ArrayLike<number>, w: ArrayLike<number>, use: (k: number) => boolean, fit: ContinuumFit,
 ): number {
   let c = 0;
   let n = 0;
   for (let k = 0; k < xA.length; k++) {
     if (!(w[k] > 0) || !use(k)) continue;
-    const r = y[k] - fit.a - fit.b * (xA[k] - fit.xRef);
+    const r = y[k] - continuumValue(fit, xA[k]);
     c += w[k] * r * r;
     n++;
   }
-  return n > 2 ? Math.max(1, Math.sqrt(c / (n - 2))) : 1;
+  const dof = n - fit.coef.length;
+  return dof > 0 ? Math.max(1, Math.sqrt(c / dof)) : 1;
 }
 
 export interface FilterHit {
@@ -140,6 +186,102 @@ export function bestFilterHit(
         bestScore = score;
         best = h;
       }
+    }
+  }
+  return best;
+}
+
+/**
+ * Gaussian of fixed sigma centred on pixel k fitted jointly with a polynomial
+ * continuum (degree 0-2) to all points with w > 0: one weighted linear least
+ * squares, so the amplitude error includes the continuum's uncertainty.
+ * snr = amplitude / sqrt(C_aa), C = inverse normal matrix (standard linear
+ * least squares). snr 0 when the system is singular.
+ */
+export function jointFilterAt(
+  xA: ArrayLike<number>, y: ArrayLike<number>, w: ArrayLike<number>, k: number, sigmaA: number,
+  xRef: number, degree: 0 | 1 | 2, spanA: number,
+): FilterHit {
+  const c = xA[k];
+  const m = degree + 2;
+  const a = Array.from({ length: m }, () => new Array<number>(m).fill(0));
+  const b = new Array<number>(m).fill(0);
+  const basis = new Array<number>(m);
+  for (let j = 0; j < xA.length; j++) {
+    if (!(w[j] > 0)) continue;
+    const t = (xA[j] - c) / sigmaA;
+    basis[0] = Math.abs(t) < 6 ? Math.exp(-0.5 * t * t) : 0; // same 6-sigma cut as jointFilterScan
+    const u = (xA[j] - xRef) / spanA;
+    for (let i = 0; i <= degree; i++) basis[i + 1] = u ** i;
+    for (let p = 0; p < m; p++) {
+      b[p] += w[j] * basis[p] * y[j];
+      for (let q = 0; q < m; q++) a[p][q] += w[j] * basis[p] * basis[q];
+    }
+  }
+  const sol = solveSmall(a, b);
+  const e0 = solveSmall(a, [1, ...new Array<number>(m - 1).fill(0)]);
+  if (!sol || !e0 || !(e0[0] > 0)) return { k, centreA: c, amplitude: 0, snr: 0, sigmaA };
+  return { k, centreA: c, amplitude: sol[0], snr: sol[0] / Math.sqrt(e0[0]), sigmaA };
+}
+
+/**
+ * jointFilterAt for a run of trial centres kFrom..kTo (every stride-th pixel),
+ * returning the hit with the largest sign * snr (sign 0: largest |snr|), or
+ * null. Fast path: the continuum-continuum and continuum-data sums do not
+ * depend on the centre and are formed once; the Gaussian sums use pixels
+ * within 6 sigma. Same numbers as calling jointFilterAt at each centre.
+ */
+export function jointFilterScan(
+  xA: ArrayLike<number>, y: ArrayLike<number>, w: ArrayLike<number>, kFrom: number, kTo: number, stride: number,
+  sigmaA: number, xRef: number, degree: 0 | 1 | 2, spanA: number, sign: 1 | -1 | 0,
+): FilterHit | null {
+  const m = degree + 2;
+  const pp = Array.from({ length: m - 1 }, () => new Array<number>(m - 1).fill(0));
+  const py = new Array<number>(m - 1).fill(0);
+  const pwBuf = [1, 0, 0];
+  const pows = (x: number): number[] => {
+    const u = (x - xRef) / spanA;
+    pwBuf[1] = u;
+    pwBuf[2] = u * u;
+    return pwBuf;
+  };
+  for (let j = 0; j < xA.length; j++) {
+    if (!(w[j] > 0)) continue;
+    const pw = pows(xA[j]);
+    for (let p = 0; p <= degree; p++) {
+      py[p] += w[j] * pw[p] * y[j];
+      for (let q = 0; q <= degree; q++) pp[p][q] += w[j] * pw[p] * pw[q];
+    }
+  }
+  let best: FilterHit | null = null;
+  let bestScore = -Infinity;
+  const step = Math.max(1, Math.floor(stride));
+  for (let k = Math.max(0, kFrom); k <= Math.min(xA.length - 1, kTo); k += step) {
+    const c = xA[k];
+    let gg = 0;
+    let gy = 0;
+    const gp = new Array<number>(degree + 1).fill(0);
+    for (let j = k; j >= 0 && c - xA[j] < 6 * sigmaA; j--) accumulate(j);
+    for (let j = k + 1; j < xA.length && xA[j] - c < 6 * sigmaA; j++) accumulate(j);
+    function accumulate(j: number): void {
+      if (!(w[j] > 0)) return;
+      const t = (xA[j] - c) / sigmaA;
+      const g = Math.exp(-0.5 * t * t);
+      const pw = pows(xA[j]);
+      gg += w[j] * g * g;
+      gy += w[j] * g * y[j];
+      for (let p = 0; p <= degree; p++) gp[p] += w[j] * g * pw[p];
+    }
+    const a = [[gg, ...gp], ...pp.map((row, p) => [gp[p], ...row])];
+    const b = [gy, ...py];
+    const sol = solveSmall(a, b);
+    const e0 = solveSmall(a, [1, ...new Array<number>(m - 1).fill(0)]);
+    if (!sol || !e0 || !(e0[0] > 0)) continue;
+    const hit = { k, centreA: c, amplitude: sol[0], snr: sol[0] / Math.sqrt(e0[0]), sigmaA };
+    const score = sign === 0 ? Math.abs(hit.snr) : sign * hit.snr;
+    if (score > bestScore) {
+      bestScore = score;
+      best = hit;
     }
   }
   return best;

@@ -1,0 +1,256 @@
+/**
+ * "Name this line": a reviewer clicks a feature in the plot; locateFeature
+ * finds and fits the nearest significant peak or trough, and suggestLines
+ * lists the catalogue lines it could be, each with the redshift it implies and
+ * how many other catalogue lines would then sit on real features.
+ *
+ * The support count is a quick test, not a fit: treat a suggestion with little
+ * support as a guess, and check the implied redshift against the whole spectrum.
+ */
+import type { Spectrum } from '../types';
+import { LINES } from '../lines/catalogue';
+import { FWHM_PER_SIGMA, fitGaussLine, fittedFlux } from './gaussFit';
+import { continuumValue, filterAt, fitClippedContinuum, jointFilterScan, noiseScale } from './lines/matchedFilter';
+import { lowerIndex, pixelWidthAt, pixelWindow, type PixelWindow } from './lines/pixelWindow';
+
+/** Speed of light, km/s (exact, SI definition). */
+const C_KMS = 299792.458;
+
+/** A matched-filter peak must reach this signal-to-noise to count as a feature near a click (chosen so that pure noise almost never qualifies). */
+export const LOCATE_SNR = 5;
+/** The fitted feature must have |flux| / fluxErr at least this. */
+export const LOCATE_FIT_SNR = 3;
+/** A predicted line position supports a redshift when the matched filter there reaches this signal-to-noise. */
+export const SUPPORT_SNR = 4;
+
+export interface LocatedFeature {
+  /** Fitted centre, observed vacuum Angstrom. */
+  centreA: number;
+  centreErrA: number;
+  kind: 'emission' | 'absorption';
+  /** |flux| / fluxErr of the Gaussian fit. */
+  snr: number;
+  /** Observed FWHM, Angstrom (instrumental width not removed). */
+  fwhmA: number;
+}
+
+export interface LineSuggestion {
+  lineId: string;
+  label: string;
+  restA: number;
+  /** Redshift implied by this identification: centre / rest - 1. */
+  z: number;
+  /** How many other catalogue lines land on significant features at this z. */
+  supporting: number;
+  supportingIds: string[];
+}
+
+/** Noise scale from the median absolute normalised residual (MAD / 0.6745, common practice), at least 1. */
+function robustScale(r: ArrayLike<number>, w: ArrayLike<number>): number {
+  const a: number[] = [];
+  for (let k = 0; k < r.length; k++) if (w[k] > 0) a.push(Math.abs(r[k]) * Math.sqrt(w[k]));
+  if (a.length < 5) return 1;
+  a.sort((x, y) => x - y);
+  return Math.max(1, a[Math.floor(a.length / 2)] / 0.6745);
+}
+
+/**
+ * Find the significant peak or trough nearest to clickA (within halfWindowA,
+ * default the larger of 10 pixels and 0.4% of the wavelength, ~1200 km/s) and
+ * fit it with a Gaussian plus local continuum. null when the click is outside
+ * the spectrum, nothing there reaches LOCATE_SNR, or the fit does not hold.
+ */
+export function locateFeature(spectrum: Spectrum, clickA: number, halfWindowA?: number): LocatedFeature | null {
+  const wl = spectrum.wavelengthA;
+  if (!(clickA >= wl[0] && clickA <= wl[wl.length - 1])) return null;
+  const pix = pixelWidthAt(spectrum, clickA);
+  const h = halfWindowA ?? Math.max(10 * pix, 0.004 * clickA);
+  // Kernel sigmas of 1 to 32 pixels, up to two thirds of the search half-width.
+  return locateWith(spectrum, clickA, h, KERNEL_PIXELS.map((n) => n * pix).filter((s, i) => i === 0 || s <= h / 1.5));
+}
+
+/** Kernel sigmas tried by the feature finder, pixels. */
+const KERNEL_PIXELS = [1, 2, 4, 8, 16, 32, 64];
+
+function locateWith(spectrum: Spectrum, clickA: number, h: number, sigmas: number[]): LocatedFeature | null {
+  const pix = pixelWidthAt(spectrum, clickA);
+  const sMax = sigmas[sigmas.length - 1];
+  const win = pixelWindow(spectrum, clickA - h - 6 * sMax, clickA + h + 6 * sMax);
+  if (win.nGood < 8) return null;
+
+  const cont = fitClippedContinuum(win.xA, win.y, win.w, () => true, clickA, 1);
+  if (!cont) return null;
+  const r = win.xA.map((x, k) => win.y[k] - continuumValue(cont, x));
+  const scale = robustScale(r, win.w);
+  const w = win.w.map((v) => v / (scale * scale));
+
+  // Best |snr| over kernel widths at each trial centre.
+  const kFrom = lowerIndex(win.xA, clickA - h);
+  const kTo = lowerIndex(win.xA, clickA + h) - 1;
+  const best: ({ snr: number; amplitude: number; sigmaA: number; centreA: number } | null)[] = [];
+  for (let k = kFrom; k <= kTo; k++) {
+    let b: (typeof best)[number] = null;
+    if (w[k] > 0) {
+      for (const s of sigmas) {
+        const hit = filterAt(win.xA, r, w, k, s);
+        if (!b || Math.abs(hit.snr) > Math.abs(b.snr)) b = hit;
+      }
+    }
+    best.push(b);
+  }
+  // Local maxima of |snr| above threshold; the one nearest the click wins.
+  let chosen: (typeof best)[number] = null;
+  for (let i = 0; i < best.length; i++) {
+    const b = best[i];
+    if (!b || Math.abs(b.snr) < LOCATE_SNR) continue;
+    const left = best[i - 1];
+    const right = best[i + 1];
+    if ((left && Math.abs(left.snr) > Math.abs(b.snr)) || (right && Math.abs(right.snr) > Math.abs(b.snr))) continue;
+    const d = Math.abs(b.centreA - clickA);
+    if (!chosen || d < Math.abs(chosen.centreA - clickA) || (d === Math.abs(chosen.centreA - clickA) && Math.abs(b.snr) > Math.abs(chosen.snr))) {
+      chosen = b;
+    }
+  }
+  if (!chosen) return null;
+  return fitFeature(spectrum, chosen, continuumValue(cont, chosen.centreA), cont.coef[1] ?? 0, pix);
+}
+
+function fitFeature(
+  spectrum: Spectrum,
+  start: { amplitude: number; sigmaA: number; centreA: number },
+  c0: number,
+  c1: number,
+  pix: number,
+): LocatedFeature | null {
+  const c = start.centreA;
+  const half = Math.max(5 * start.sigmaA, 6 * pix);
+  const win = pixelWindow(spectrum, c - half, c + half);
+  const fit = fitGaussLine(win.xA, win.y, win.w, {
+    initial: { amplitude: start.amplitude, centre: c, sigma: start.sigmaA, c0, c1 },
+    xRef: c,
+    centreBounds: [c - 2 * start.sigmaA - pix, c + 2 * start.sigmaA + pix],
+    sigmaBounds: [0.3 * pix, 2.5 * half],
+  });
+  if (fit.status !== 'converged') return null;
+  const { flux, fluxErr } = fittedFlux(fit);
+  const snr = Math.abs(flux) / fluxErr;
+  if (!(snr >= LOCATE_FIT_SNR) || Math.sign(flux) !== Math.sign(start.amplitude)) return null;
+  return {
+    centreA: fit.params.centre,
+    centreErrA: fit.errors.centre,
+    kind: fit.params.amplitude > 0 ? 'emission' : 'absorption',
+    snr,
+    fwhmA: FWHM_PER_SIGMA * fit.params.sigma,
+  };
+}
+
+/**
+ * Signal-to-noise of the best peak (sign +1) or trough (-1) of width sigmaA
+ * within toleranceA of lambdaA, against a quadratic continuum from side bands
+ * 3 to 10 sigma (plus tolerance) away; noise inflated by the side bands' scatter
+ * when it exceeds the stated errors. Pixels within exclude.halfA of
+ * exclude.centreA (a known feature) are ignored. 0 when the data there are too thin.
+ */
+export function featureSnrAt(
+  spectrum: Spectrum, lambdaA: number, sigmaA: number, sign: 1 | -1, toleranceA: number,
+  exclude?: { centreA: number; halfA: number },
+): number {
+  const inner = 3 * sigmaA + toleranceA;
+  const outer = 10 * sigmaA + toleranceA;
+  const win: PixelWindow = pixelWindow(spectrum, lambdaA - outer, lambdaA + outer);
+  if (exclude) {
+    for (let k = 0; k < win.xA.length; k++) if (Math.abs(win.xA[k] - exclude.centreA) <= exclude.halfA) win.w[k] = 0;
+  }
+  const side = (k: number): boolean => Math.abs(win.xA[k] - lambdaA) > inner;
+  let nBlue = 0;
+  let nRed = 0;
+  let nCore = 0;
+  for (let k = 0; k < win.xA.length; k++) {
+    if (!(win.w[k] > 0)) continue;
+    if (side(k)) {
+      if (win.xA[k] < lambdaA) nBlue++;
+      else nRed++;
+    } else if (Math.abs(win.xA[k] - lambdaA) <= toleranceA + sigmaA) nCore++;
+  }
+  // Both side bands are needed: a one-sided continuum extrapolates its slope error.
+  if (nBlue < 3 || nRed < 3 || nCore < 2) return 0;
+  // A quadratic through the two side bands follows a curved continuum (a power
+  // law, say), which a straight chord would turn into false troughs or peaks.
+  // First a clipped continuum finds side-band outliers (other lines, spikes) to drop.
+  const cont = fitClippedContinuum(win.xA, win.y, win.w, side, lambdaA, 2);
+  if (!cont) return 0;
+  const scale = noiseScale(win.xA, win.y, win.w, side, cont);
+  const w = win.w.map((v, k) =>
+    side(k) && Math.abs(win.y[k] - continuumValue(cont, win.xA[k])) * Math.sqrt(v) > 3 * scale ? 0 : v);
+  // Then Gaussian and quadratic are fitted together at each trial centre, so the
+  // continuum's own uncertainty enters the amplitude error.
+  // Trial centres every quarter sigma (at least every pixel).
+  const stride = sigmaA / 4 / pixelWidthAt(spectrum, lambdaA);
+  const hit = jointFilterScan(
+    win.xA, win.y, w, lowerIndex(win.xA, lambdaA - toleranceA), lowerIndex(win.xA, lambdaA + toleranceA) - 1,
+    stride, sigmaA, lambdaA, 2, outer, sign,
+  );
+  const best = hit ? Math.max(0, (sign * hit.snr) / scale) : 0;
+  return best;
+}
+
+/** Default plausible redshift range for suggestions (brief: -0.005 to 7). */
+export const SUGGEST_Z_MIN = -0.005;
+export const SUGGEST_Z_MAX = 7;
+
+/**
+ * Catalogue lines of the given kind that the feature at centreA could be,
+ * best first: most supporting lines, then the catalogue strength of the line,
+ * then the summed signal-to-noise of the support. Each other catalogue line
+ * is tested at its predicted position (emission as a peak, absorption as a
+ * trough) with the clicked feature's velocity width; lines that would land on
+ * the clicked feature itself (within 5 sigma of it, at least 1000 km/s, plus
+ * the position tolerance) are not counted, and its pixels are kept out of the
+ * other tests' continuum.
+ */
+export function suggestLines(
+  spectrum: Spectrum, centreA: number, kind: 'emission' | 'absorption', options?: { zMin?: number; zMax?: number },
+): LineSuggestion[] {
+  const zMin = options?.zMin ?? SUGGEST_Z_MIN;
+  const zMax = options?.zMax ?? SUGGEST_Z_MAX;
+  const wl = spectrum.wavelengthA;
+  const lamMin = wl[0];
+  const lamMax = wl[wl.length - 1];
+  const pix = pixelWidthAt(spectrum, centreA);
+
+  // Velocity width of the clicked feature (300 km/s when it cannot be fitted);
+  // kernels up to 64 pixels so that a broad quasar line gets its own width.
+  const found = locateWith(spectrum, centreA, 3 * pix, KERNEL_PIXELS.map((n) => n * pix));
+  const fwhmKms = Math.min(10000, Math.max(2.5 * (pix / centreA) * C_KMS, found ? (found.fwhmA / centreA) * C_KMS : 300));
+
+  // The clicked feature itself is kept out of every test: +-5 sigma (where a
+  // Gaussian has fallen to 4e-6 of its peak), at least 1000 km/s.
+  const exclude = { centreA, halfA: (Math.max((5 * fwhmKms) / FWHM_PER_SIGMA, 1000) / C_KMS) * centreA };
+  const scored: (LineSuggestion & { strength: number; snrSum: number })[] = [];
+  for (const hyp of LINES) {
+    if (hyp.kind !== kind) continue;
+    const z = centreA / hyp.restA - 1;
+    if (!(z >= zMin && z <= zMax)) continue;
+    const supportingIds: string[] = [];
+    let snrSum = 0;
+    for (const other of LINES) {
+      if (other.id === hyp.id) continue;
+      const lamA = (1 + z) * other.restA;
+      const sigmaA = Math.max(0.8 * pix, ((fwhmKms / C_KMS) * lamA) / FWHM_PER_SIGMA);
+      const tolA = Math.max(1.5 * pix, 0.5 * FWHM_PER_SIGMA * sigmaA, (200 / C_KMS) * lamA);
+      if (lamA - 3 * sigmaA - tolA < lamMin || lamA + 3 * sigmaA + tolA > lamMax) continue;
+      if (Math.abs(lamA - centreA) < exclude.halfA + tolA) continue;
+      const snr = featureSnrAt(spectrum, lamA, sigmaA, other.kind === 'emission' ? 1 : -1, tolA, exclude);
+      if (snr >= SUPPORT_SNR) {
+        supportingIds.push(other.id);
+        snrSum += snr;
+      }
+    }
+    scored.push({
+      lineId: hyp.id, label: hyp.label, restA: hyp.restA, z, supporting: supportingIds.length, supportingIds,
+      strength: hyp.strength, snrSum,
+    });
+  }
+  scored.sort((a, b) => b.supporting - a.supporting || b.strength - a.strength || b.snrSum - a.snrSum);
+  return scored.map(({ lineId, label, restA, z, supporting, supportingIds }) => ({ lineId, label, restA, z, supporting, supportingIds }));
+}

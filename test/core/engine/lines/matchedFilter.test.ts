@@ -1,0 +1,93 @@
+import { describe, expect, it } from 'vitest';
+import {
+  bestFilterHit, continuumValue, filterAt, fitClippedContinuum, fitContinuum, jointFilterAt, jointFilterScan, noiseScale,
+} from '../../../../src/core/engine/lines/matchedFilter';
+import { seededNormal } from './testKit';
+
+const x = Float64Array.from({ length: 201 }, (_, i) => 6000 + i * 0.5);
+const ones = new Float64Array(x.length).fill(1);
+const quad = (v: number): number => 3 + 0.02 * (v - 6050) - 1e-4 * (v - 6050) ** 2;
+const gauss = (v: number, c: number, s: number): number => Math.exp(-0.5 * ((v - c) / s) ** 2);
+
+describe('fitContinuum / fitClippedContinuum', () => {
+  it('recovers an exact quadratic and an exact line (least squares on exact data)', () => {
+    const y = x.map(quad);
+    const q = fitContinuum(x, y, ones, () => true, 6050, 2)!;
+    expect(q.coef[0]).toBeCloseTo(3, 9);
+    expect(q.coef[1]).toBeCloseTo(0.02, 11);
+    expect(q.coef[2]).toBeCloseTo(-1e-4, 12);
+    const l = fitContinuum(x, x.map((v) => 1 + 0.5 * (v - 6000)), ones, () => true, 6000, 1)!;
+    expect(continuumValue(l, 6070)).toBeCloseTo(36, 9);
+  });
+
+  it('lowers the degree when the points cannot carry it, and gives null with no points', () => {
+    const y = x.map(quad);
+    const one = fitContinuum(x, y, ones, (k) => k === 7, 6050, 2)!;
+    expect(one.coef).toHaveLength(1);
+    expect(one.coef[0]).toBeCloseTo(y[7], 12);
+    expect(fitContinuum(x, y, ones, () => false, 6050, 1)).toBeNull();
+  });
+
+  it('clipping ignores a strong spike that drags the plain fit', () => {
+    const y = x.map(quad);
+    y[100] += 500;
+    const plain = fitContinuum(x, y, ones, () => true, 6050, 2)!;
+    const clipped = fitClippedContinuum(x, y, ones, () => true, 6050, 2)!;
+    expect(Math.abs(continuumValue(plain, 6050) - 3)).toBeGreaterThan(0.5);
+    expect(continuumValue(clipped, 6050)).toBeCloseTo(3, 9);
+  });
+
+  it('noiseScale is 1 for honest errors and the real scatter for understated ones', () => {
+    const rnd = seededNormal(3);
+    const y = x.map((v) => 5 + 2 * rnd());
+    const fit = fitContinuum(x, y, ones, () => true, 6050, 0)!;
+    expect(noiseScale(x, y, ones.map(() => 1 / 4), () => true, fit)).toBeLessThan(1.15);
+    expect(noiseScale(x, y, ones, () => true, fit)).toBeGreaterThan(1.8); // stated sigma 1, true 2
+    expect(noiseScale(x, y, ones, () => true, fit)).toBeLessThan(2.2);
+  });
+});
+
+describe('Gaussian matched filters', () => {
+  it('filterAt returns the exact amplitude of a centred Gaussian and snr = a sqrt(sum w g^2)', () => {
+    const r = x.map((v) => 7 * gauss(v, x[100], 1.5));
+    const h = filterAt(x, r, ones.map(() => 4), 100, 1.5);
+    expect(h.amplitude).toBeCloseTo(7, 9);
+    let sgg = 0;
+    for (const v of x) if (Math.abs(v - x[100]) <= 6) sgg += 4 * gauss(v, x[100], 1.5) ** 2;
+    expect(h.snr).toBeCloseTo(7 * Math.sqrt(sgg), 9);
+  });
+
+  it('bestFilterHit finds the peak and honours the sign', () => {
+    const r = x.map((v) => 5 * gauss(v, x[60], 2) - 3 * gauss(v, x[140], 2));
+    expect(bestFilterHit(x, r, ones, 0, 200, [1, 2, 4], 1)!.k).toBe(60);
+    expect(bestFilterHit(x, r, ones, 0, 200, [1, 2, 4], -1)!.k).toBe(140);
+    expect(bestFilterHit(x, r, ones, 0, 200, [2], 0)!.k).toBe(60);
+    expect(bestFilterHit(x, r.map(() => 0), ones, 0, 200, [2], 1)).toBeNull();
+  });
+
+  it('jointFilterAt recovers the amplitude on a curved continuum, with a larger error than the plain filter', () => {
+    const y = x.map((v) => quad(v) + 4 * gauss(v, x[100], 2));
+    const h = jointFilterAt(x, y, ones, 100, 2, 6050, 2, 50);
+    expect(h.amplitude).toBeCloseTo(4, 8);
+    const plain = filterAt(x, y.map((v, k) => v - quad(x[k])), ones, 100, 2);
+    expect(Math.abs(h.amplitude / h.snr)).toBeGreaterThan(Math.abs(plain.amplitude / plain.snr));
+  });
+
+  it('jointFilterScan (fast) agrees with jointFilterAt at every centre (slow, obvious)', () => {
+    const rnd = seededNormal(17);
+    const y = x.map((v) => quad(v) + 4 * gauss(v, x[90], 2) + 0.3 * rnd());
+    const w = ones.map((_, k) => (k % 23 === 0 ? 0 : 11));
+    for (const sign of [1, -1, 0] as const) {
+      let best: ReturnType<typeof jointFilterAt> | null = null;
+      for (let k = 70; k <= 130; k += 3) {
+        const h = jointFilterAt(x, y, w, k, 2, 6050, 2, 50);
+        const score = sign === 0 ? Math.abs(h.snr) : sign * h.snr;
+        if (!best || score > (sign === 0 ? Math.abs(best.snr) : sign * best.snr)) best = h;
+      }
+      const fast = jointFilterScan(x, y, w, 70, 130, 3, 2, 6050, 2, 50, sign)!;
+      expect(fast.k).toBe(best!.k);
+      expect(fast.snr).toBeCloseTo(best!.snr, 8);
+      expect(fast.amplitude).toBeCloseTo(best!.amplitude, 8);
+    }
+  });
+});

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { CommentError, parseAngleDeg, readCommentFacts } from '../../../src/core/io/text/commentMeta';
+import { parseAngleDeg, readCommentFacts } from '../../../src/core/io/text/commentMeta';
 
 const facts = (...bodies: string[]) => readCommentFacts(bodies.map((body, i) => ({ line: i + 1, body })));
 
@@ -21,14 +21,10 @@ describe('readCommentFacts(comments)', () => {
   it('ignores free text', () => {
     expect(facts('made by hand, see notes', 'wavelength flux')).toEqual({ meta: {}, wavelength: [] });
   });
-  it('throws CommentError with the line for an unreadable exposure', () => {
-    try {
-      facts('x: 1', 'exptime: long');
-      throw new Error('no error');
-    } catch (e) {
-      expect(e).toBeInstanceOf(CommentError);
-      expect((e as CommentError).line).toBe(2);
-    }
+  it('leaves out an unreadable exposure and keeps the other facts', () => {
+    const f = facts('object: Q1', 'exptime: long');
+    expect(f.meta.exposureS).toBeUndefined();
+    expect(f.meta.objectId).toBe('Q1');
   });
 });
 

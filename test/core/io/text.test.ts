@@ -223,10 +223,12 @@ describe('readTextSpectrum: metadata from comments', () => {
     expect(s.meta.decDeg).toBeCloseTo(-2.21, 9); // -(2 + 12/60 + 36/3600)
   });
 
-  it('names the line of a position that cannot be read', () => {
-    const e = caught(() => read('# object: A\n# dec: 95\n4000 1\n4001 1\n'));
-    expect(e.where.line).toBe(2);
-    expect(e.message).toMatch(/^spec\.csv \(line 2\): dec: '95' is not a declination/);
+  it('leaves out a position or exposure that cannot be read, and still reads the spectrum', () => {
+    const s = read('# object: A\n# dec: 95\n# exptime: long\n4000 1\n4001 1\n');
+    expect(s.meta.objectId).toBe('A');
+    expect(s.meta.decDeg).toBeUndefined(); // |dec| > 90 deg is impossible
+    expect(s.meta.exposureS).toBeUndefined();
+    expect(s.flux.length).toBe(2);
   });
 
   it('skips metadata written as unknown', () => {

@@ -95,17 +95,13 @@ function setMeta(meta: SpectrumMeta, target: MetaKey, value: string, line: numbe
     case 'raDeg':
     case 'decDeg': {
       const deg = parseAngleDeg(value, target === 'raDeg');
-      if (deg === undefined) {
-        const what = target === 'raDeg' ? 'right ascension (degrees 0-360 or h:m:s)' : 'declination (degrees -90..90 or d:m:s)';
-        throw new CommentError(line, key, `'${value}' is not a ${what}`);
-      }
-      meta[target] = deg;
+      // A header fact that cannot be read is left out: the spectrum itself is still good.
+      if (deg !== undefined) meta[target] = deg;
       return;
     }
     case 'exposureS': {
       const m = /^([+]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(?:s|sec|secs|seconds?)?$/.exec(value);
-      if (!m) throw new CommentError(line, key, `'${value}' is not an exposure time in seconds`);
-      meta.exposureS = Number(m[1]);
+      if (m) meta.exposureS = Number(m[1]);
       return;
     }
     default:

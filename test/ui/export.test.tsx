@@ -1,0 +1,90 @@
+// @vitest-environment jsdom
+import { describe, it, expect, afterEach, vi } from 'vitest';
+import { render, screen, fireEvent, cleanup } from '@testing-library/react';
+import { buildExport } from '../../src/ui/export/buildExport';
+import { DEFAULT_COSMOLOGY } from '../../src/core/cosmology';
+import { parseCatalogueCsv } from '../../src/core/table';
+import { makeResult, makeFailed, makeDecision, textBytes } from './fixtures';
+import { fakeReview, makeSession, waitUntil, ScriptedFitter } from './harness';
+
+vi.mock('../../src/ui/plots', () => import('./plotsStub'));
+const { App } = await import('../../src/ui/App');
+
+afterEach(cleanup);
+
+const results = new Map([
+  ['k1', makeResult('one.fits')],
+  ['k2', makeFailed('two.fits', 'two.fits: missing END card')],
+  ['k3', makeResult('three.fits', { z: 0.5 })],
+]);
+const source = {
+  rows: [
+    { key: 'k1', decision: makeDecision('one.fits', { state: 'changed', z: 1.25, howSet: 'typed', note: '=SUM(A1)' }) },
+    { key: 'k2' },
+    { key: 'k3' },
+    { key: 'k4' }, // never fitted
+  ],
+  getResult: async (k: string) => results.get(k),
+};
+
+describe('buildExport', () => {
+  it('CSV carries the header block, the column names and one row per fitted file', async () => {
+    const built = await buildExport(source, 'csv', DEFAULT_COSMOLOGY, 'all', '2026-01-02T00:00:00Z');
+    expect(built.rowCount).toBe(3);
+    expect(built.notFitted).toBe(1);
+    const text = built.data as string;
+    expect(text).toMatch(/^# software: Shiftmark /);
+    expect(text).toMatch(/# cosmology: flat Lambda-CDM: H0 = 70/);
+    const parsed = parseCatalogueCsv(text);
+    expect(parsed.rows.map((r) => r.file)).toEqual(['one.fits', 'two.fits', 'three.fits']);
+    expect(parsed.rows[0]).toMatchObject({ review_state: 'changed', how_set: 'typed', final_z: '1.250000', reviewer: 'Tester', note: '=SUM(A1)' });
+    expect(parsed.rows[1]).toMatchObject({ review_state: 'unreviewed', error: 'two.fits: missing END card' });
+    // The formula guard (RFC 4180 export, common practice against CSV injection) is applied in the file itself.
+    expect(text).toContain("'=SUM(A1)");
+  });
+
+  it('plain CSV has no comment block; reviewed-only keeps decided rows', async () => {
+    const built = await buildExport(source, 'csv-plain', DEFAULT_COSMOLOGY, 'reviewed');
+    const text = built.data as string;
+    expect(text.startsWith('file,')).toBe(true);
+    expect(built.rowCount).toBe(1);
+  });
+
+  it('FITS, VOTable and JSON come out of the same rows', async () => {
+    const fits = await buildExport(source, 'fits', DEFAULT_COSMOLOGY);
+    expect(fits.data).toBeInstanceOf(Uint8Array);
+    // FITS 4.0 sec. 3.1: a file is a whole number of 2880-byte blocks, starting with SIMPLE.
+    expect((fits.data as Uint8Array).length % 2880).toBe(0);
+    expect(new TextDecoder().decode((fits.data as Uint8Array).subarray(0, 6))).toBe('SIMPLE');
+    const vot = await buildExport(source, 'votable', DEFAULT_COSMOLOGY);
+    expect(vot.data as string).toContain('<VOTABLE');
+    const json = JSON.parse((await buildExport(source, 'json', DEFAULT_COSMOLOGY)).data as string);
+    expect(JSON.stringify(json)).toContain('three.fits');
+  });
+});
+
+describe('ExportPanel', () => {
+  it('t opens the panel and Download saves a CSV through a Blob link', async () => {
+    const { session, db } = await makeSession(undefined, new ScriptedFitter());
+    await session.addFiles([{ path: 'a.txt', bytes: textBytes('a') }]);
+    await waitUntil(() => session.getSnapshot().rows[0]?.status === 'ok', 'fit');
+    const blobs: Blob[] = [];
+    const created = vi.fn((b: Blob) => (blobs.push(b), 'blob:test'));
+    Object.assign(URL, { createObjectURL: created, revokeObjectURL: vi.fn() });
+    const clicks: string[] = [];
+    const spy = vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(function (this: HTMLAnchorElement) {
+      clicks.push(this.download);
+    });
+    render(<App services={{ session, review: fakeReview() }} />);
+    await screen.findByTestId('review-panel');
+    fireEvent.keyDown(window, { key: 't' });
+    fireEvent.click(await screen.findByTestId('export-download'));
+    await screen.findByText(/Saved 1 rows/);
+    expect(clicks[0]).toMatch(/^shiftmark-catalogue-.*\.csv$/);
+    const text = await blobs[0].text();
+    expect(text).toContain('\r\nfile,object_id,');
+    expect(text).toContain('a.txt,OBJ-a.txt');
+    spy.mockRestore();
+    db.close();
+  });
+});

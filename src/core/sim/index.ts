@@ -6,3 +6,5 @@ export { simulateSpectrum, FLUX_UNIT, type SimClass, type SimParams, type SimTru
 export { simulateBatch, batchParams, type BatchOptions } from './simulateBatch';
 export type { TruthLine } from './model';
 export type { StarType } from './star';
+export { buildSampleSet, truthCsv, parseTruthCsv, SAMPLE_SEED, type SampleSet, type SampleFile, type SampleTruthRow } from './sampleSet';
+export { PLAN, FIELD_NAME, FIELD_CODE, type SampleLayout, type PlannedObject } from './samplePlan';

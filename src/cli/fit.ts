@@ -1,0 +1,121 @@
+/**
+ * Headless fitter: `npm run fit -- <files or folders...> --out table.csv`.
+ * One row per input file, in input order; an unreadable file gets a row with
+ * its reason in `error` and never stops the batch. Rows stream to the output
+ * as they finish (in order), so memory stays flat for any batch size.
+ */
+import { availableParallelism } from 'node:os';
+import { createWriteStream, type WriteStream } from 'node:fs';
+import { Worker } from 'node:worker_threads';
+import { parseArgs, UsageError } from './args';
+import { expandInputs } from './walk';
+import { listFingerprint, parseShard, selectShard } from './shard';
+import { JobFailure, ThreadPool } from './threadPool';
+import { parseCosmologyOption } from './cosmologyOption';
+import { failedResult } from '../core/pipeline';
+import { automaticRow, catalogueTableWriter, type TableFormat } from '../core/table';
+import { ENGINE_VERSION, TEMPLATE_SET_ID } from '../core/engine';
+import type { FitJob, FitJobResult } from './fitThread';
+
+const USAGE = `usage: npm run fit -- <files or folders...> --out <table.csv> [options]
+  --out FILE          where to write the table (default: standard output)
+  --format csv|json   table format (default csv; also from the --out extension)
+  --jobs N            worker threads (default: the number of cores)
+  --cosmology SPEC    e.g. h0=70,om=0.3,ok=0,or=0 (default flat h0=70, om=0.3)
+  --shard I/N         fit only shard I of N of the sorted input list
+  --time-limit S      seconds allowed per file (default 60)
+  --no-header         CSV without the # header block
+  --quiet             no progress line on standard error`;
+
+async function main(argv: string[]): Promise<number> {
+  const args = parseArgs(argv, ['out', 'format', 'jobs', 'cosmology', 'shard', 'time-limit'], ['no-header', 'quiet', 'help']);
+  if (args.flags.has('help')) {
+    process.stdout.write(USAGE + '\n');
+    return 0;
+  }
+  if (args.positional.length === 0) throw new UsageError('no input files or folders given');
+  const outPath = args.options.get('out');
+  const format = (args.options.get('format') ?? (outPath?.endsWith('.json') ? 'json' : 'csv')) as TableFormat;
+  if (format !== 'csv' && format !== 'json') throw new UsageError(`unknown --format ${format}: use csv or json`);
+  const jobs = Number(args.options.get('jobs') ?? availableParallelism());
+  if (!Number.isInteger(jobs) || jobs < 1) throw new UsageError(`--jobs must be a whole number >= 1`);
+  const timeLimitS = Number(args.options.get('time-limit') ?? 60);
+  if (!(timeLimitS > 0)) throw new UsageError('--time-limit must be a positive number of seconds');
+  const cosmology = parseCosmologyOption(args.options.get('cosmology'));
+
+  const all = expandInputs(args.positional);
+  const shardText = args.options.get('shard');
+  const shard = shardText ? parseShard(shardText) : { index: 1, count: 1 };
+  const files = selectShard(all, shard);
+
+  const out: WriteStream | NodeJS.WriteStream = outPath ? createWriteStream(outPath) : process.stdout;
+  const writer = catalogueTableWriter(format, {
+    software: 'Shiftmark',
+    version: ENGINE_VERSION,
+    templateSet: TEMPLATE_SET_ID,
+    cosmology,
+    createdAt: new Date().toISOString(),
+    headerBlock: !args.flags.has('no-header'),
+    extra: { shard: `${shard.index}/${shard.count}`, inputs_total: String(all.length), input_list: listFingerprint(all) },
+  });
+  const write = (s: string) => new Promise<void>((res) => (out.write(s) ? res() : out.once('drain', () => res())));
+  await write(writer.begin());
+
+  const bootUrl = new URL('./tsWorker.mjs', import.meta.url);
+  const entry = new URL('./fitThread.ts', import.meta.url).href;
+  const pool = new ThreadPool<FitJob, FitJobResult>({
+    size: Math.min(jobs, Math.max(1, files.length)),
+    timeLimitMs: timeLimitS * 1000,
+    spawn: () => new Worker(bootUrl, { workerData: { entry } }),
+  });
+
+  const started = Date.now();
+  let done = 0;
+  let failed = 0;
+  const progress = (final = false) => {
+    if (args.flags.has('quiet')) return;
+    const rate = done / Math.max(1e-3, (Date.now() - started) / 1000);
+    process.stderr.write(`\rfitted ${done}/${files.length}, ${failed} failed, ${rate.toFixed(1)} spectra/s${final ? '\n' : ''}`);
+  };
+
+  // Bounded window: at most `window` files in flight or waiting to be written in order.
+  const window = Math.max(4 * jobs, 16);
+  const inFlight = new Map<number, Promise<Record<string, unknown>>>();
+  let next = 0;
+  const launch = (k: number) => {
+    const path = files[k];
+    inFlight.set(
+      k,
+      pool.run({ path, cosmology }).then(
+        (r) => r.row,
+        (e: Error) => {
+          const status = e instanceof JobFailure && e.kind === 'timeout' ? 'timeout' : 'failed';
+          return automaticRow(failedResult(path, `${path}: ${e.message}`, status), cosmology) as unknown as Record<string, unknown>;
+        },
+      ),
+    );
+  };
+  while (next < files.length && next < window) launch(next++);
+  for (let k = 0; k < files.length; k++) {
+    const row = await inFlight.get(k)!;
+    inFlight.delete(k);
+    if (next < files.length) launch(next++);
+    done++;
+    if (row.error) failed++;
+    await write(writer.row(row));
+    if (done % 10 === 0 || done === files.length) progress();
+  }
+  await write(writer.end());
+  progress(true);
+  await pool.close();
+  if (outPath) await new Promise<void>((res) => (out as WriteStream).end(res));
+  return 0;
+}
+
+main(process.argv.slice(2)).then(
+  (code) => process.exit(code),
+  (e: Error) => {
+    process.stderr.write(`${e instanceof UsageError ? `error: ${e.message}\n${USAGE}` : `error: ${e.stack ?? e.message}`}\n`);
+    process.exit(2);
+  },
+);

@@ -1,0 +1,341 @@
+/**
+ * Spectrum -> FitResult: resample onto the log grid, scan every template
+ * family over its redshift range with FFT correlations (on pixels binned by
+ * SCAN_BINNING for speed), refine the best few minima of each family with the
+ * full model on the fine grid, pick the best distinct candidate, count the
+ * features that support it and grade it.
+ *
+ * The chi-square curves in the result come from the fast scan (binned data,
+ * reduced model), as chi2 minus the lowest scan chi2 of any family; candidate
+ * chi2 values come from the full model on the fine grid. The two are not on
+ * the same scale and are never subtracted from each other.
+ */
+import type { Candidate, ChiSquareCurve, FitResult, LineMeasurement, Spectrum, SpectrumClass } from '../types';
+import { candidateToContract } from './contract';
+import { localMinima, mergeDistinct, orderCandidates, refineMinimum, distinctKms, type RefinedCandidate } from './candidates';
+import { confidenceScore, gradeOf } from './confidence';
+import { countFeatures, lineSignificances } from './features';
+import { DLOG10, pixelsOfVelocity, shiftOfZ, velocitySeparationKms, zOfShift } from './logGrid';
+import { measureLines } from './measureLines';
+import { makeRefineContext, type RefineContext } from './refine';
+import { binLogSpectrum, resampleToLogGrid } from './resample';
+import { binRest, type RestArray } from './restArray';
+import { dataSpectra, fftSizeFor, scanFFT, type DataSpectra, type ScanData } from './scan';
+import { TEMPLATE_SET_ID, templateFamilies, type TemplateFamily } from './templates';
+import { ENGINE_VERSION } from './version';
+
+export interface FitOptions {
+  /** Family ids to try (default: all; see FAMILY_IDS). */
+  families?: readonly string[];
+  /** Upper limit on redshift for every family (default: each family's own). */
+  zMax?: number;
+  /** Continuum polynomial terms in the observed frame (default 3). */
+  polyTerms?: number;
+  /** Measure catalogue lines at the best solution (default true). */
+  measureLines?: boolean;
+}
+
+/** Pixels of the fine grid combined into one for the scan (2 -> 138 km/s). */
+export const SCAN_BINNING = 2;
+/** Fewest usable log-grid pixels a fit accepts. */
+export const MIN_GOOD_PIXELS = 50;
+/** Largest number of points per chi-square curve. */
+export const CURVE_MAX_POINTS = 1500;
+/** Half-width of the refitNear window, km/s. */
+export const REFIT_HALF_WIDTH_KMS = 3000;
+/**
+ * The best solution must beat a polynomial-only fit by this much chi2 (and so
+ * must at least one template feature) or the class is 'unknown'. A Delta chi2
+ * of 25 is a 5-sigma improvement for one parameter (common practice).
+ */
+export const UNKNOWN_DCHI2 = 25;
+
+/** Scan minima refined per family. */
+function refineCount(f: TemplateFamily): number {
+  return f.class === 'star' ? 1 : 3;
+}
+
+interface FamilyScan {
+  family: TemplateFamily;
+  /** Fine-grid shift range of the family (after options). */
+  lo: number;
+  hi: number;
+  /** Coarse shift of chi2[0]. */
+  sMin: number;
+  chi2: Float64Array;
+}
+
+interface Prepared {
+  fine: ScanData;
+  ctx: RefineContext;
+  scans: FamilyScan[];
+  noiseEstimated: boolean;
+  input: FitResult['input'];
+}
+
+const binnedCache = new WeakMap<TemplateFamily, RestArray[]>();
+
+/** A family's scan vectors binned like the scan data (built once per family). */
+function binnedScanVectors(f: TemplateFamily): RestArray[] {
+  let v = binnedCache.get(f);
+  if (!v) {
+    v = f.scanVectors.map((r) => binRest(r, SCAN_BINNING));
+    binnedCache.set(f, v);
+  }
+  return v;
+}
+
+function median(a: number[]): number {
+  if (a.length === 0) return NaN;
+  const s = a.slice().sort((x, y) => x - y);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
+}
+
+function prepare(spectrum: Spectrum, options: FitOptions): Prepared | string {
+  const wl = spectrum.wavelengthA;
+  const inputBase = {
+    nPix: wl.length,
+    lambdaMinA: wl[0],
+    lambdaMaxA: wl[wl.length - 1],
+    meta: spectrum.meta,
+    format: spectrum.format,
+  };
+  const ls = resampleToLogGrid(spectrum, DLOG10);
+  const sig: number[] = [];
+  const snr: number[] = [];
+  for (let i = 0; i < ls.flux.length; i++) {
+    if (ls.ivar[i] > 0) {
+      sig.push(1 / Math.sqrt(ls.ivar[i]));
+      snr.push(Math.abs(ls.flux[i]) * Math.sqrt(ls.ivar[i]));
+    }
+  }
+  if (sig.length < MIN_GOOD_PIXELS) return `only ${sig.length} usable pixels on the log grid (need ${MIN_GOOD_PIXELS})`;
+  // Normalise so the typical sigma is 1: chi2 is unchanged, the sums stay O(1..1e5).
+  const scale = median(sig) || 1;
+  const fine: ScanData = {
+    k0: ls.k0,
+    flux: ls.flux.map((f) => f / scale),
+    ivar: ls.ivar.map((w) => w * scale * scale),
+  };
+  const P = options.polyTerms ?? 3;
+  const coarseLs = binLogSpectrum({ ...ls, flux: fine.flux, ivar: fine.ivar }, SCAN_BINNING);
+  const coarse: ScanData = { k0: coarseLs.k0, flux: coarseLs.flux, ivar: coarseLs.ivar };
+  const wanted = options.families ? new Set(options.families) : null;
+  const dsCache = new Map<number, DataSpectra>();
+  const scans: FamilyScan[] = [];
+  for (const family of templateFamilies()) {
+    if (wanted && !wanted.has(family.id)) continue;
+    const zMax = Math.min(family.zMax, options.zMax ?? Infinity);
+    const lo = Math.ceil(shiftOfZ(family.zMin) - 1e-9);
+    const hi = Math.floor(shiftOfZ(zMax) + 1e-9);
+    const sLo = Math.ceil(lo / SCAN_BINNING);
+    const sHi = Math.floor(hi / SCAN_BINNING);
+    if (sHi < sLo) continue;
+    const L = fftSizeFor(coarse.flux.length, sHi - sLo + 1);
+    let ds = dsCache.get(L);
+    if (!ds) {
+      ds = dataSpectra(coarse, P, L);
+      dsCache.set(L, ds);
+    }
+    const r = scanFFT(coarse, binnedScanVectors(family), sLo, sHi, P, `${family.id}@${SCAN_BINNING}`, ds);
+    scans.push({ family, lo, hi, sMin: sLo, chi2: r.chi2 });
+  }
+  if (scans.length === 0) return 'no template family covers the requested redshift range';
+  const ctx = makeRefineContext(fine, P, DLOG10);
+  return {
+    fine,
+    ctx,
+    scans,
+    noiseEstimated: ls.noiseEstimated,
+    input: { ...inputBase, medianSnr: median(snr) },
+  };
+}
+
+/** Refine the best scan minima of each family between fine shifts lo..hi. */
+function familyCandidates(p: Prepared, fs: FamilyScan, lo: number, hi: number, count: number, windowEdges: boolean): RefinedCandidate[] {
+  const from = Math.max(0, Math.ceil(lo / SCAN_BINNING) - fs.sMin);
+  const to = Math.min(fs.chi2.length - 1, Math.floor(hi / SCAN_BINNING) - fs.sMin);
+  if (to < from) return [];
+  const sep = Math.max(1, Math.floor(pixelsOfVelocity(distinctKms(fs.family.class)) / SCAN_BINNING));
+  const minima = localMinima(fs.chi2, sep, count, from, to);
+  return minima.map((m) =>
+    refineMinimum(p.ctx, fs.family, (fs.sMin + m) * SCAN_BINNING, lo, hi, windowEdges || lo === fs.lo, windowEdges || hi === fs.hi),
+  );
+}
+
+/** chi2 of the continuum polynomial alone (fine grid). */
+function polyOnlyChi2(ctx: RefineContext): number {
+  const { P, consts } = ctx;
+  if (P === 0) return consts.fwf;
+  // Solve pp c = pf by Gaussian elimination (P is tiny).
+  const A = Array.from({ length: P }, (_, a) => Array.from({ length: P }, (_, b) => consts.pp[a * P + b]));
+  const y = Array.from(consts.pf);
+  for (let c = 0; c < P; c++) {
+    const piv = A[c][c];
+    if (!(Math.abs(piv) > 0)) return consts.fwf;
+    for (let r = c + 1; r < P; r++) {
+      const f = A[r][c] / piv;
+      for (let k = c; k < P; k++) A[r][k] -= f * A[c][k];
+      y[r] -= f * y[c];
+    }
+  }
+  const x = new Array(P).fill(0);
+  for (let r = P - 1; r >= 0; r--) {
+    let s = y[r];
+    for (let k = r + 1; k < P; k++) s -= A[r][k] * x[k];
+    x[r] = s / A[r][r];
+  }
+  let ex = 0;
+  for (let a = 0; a < P; a++) ex += consts.pf[a] * x[a];
+  return consts.fwf - ex;
+}
+
+/** Down-sample a curve to at most maxPts points, keeping the minimum of each bucket. */
+export function decimateCurve(z: Float64Array, y: Float64Array, maxPts: number): { z: Float64Array; y: Float64Array } {
+  const n = y.length;
+  if (n <= maxPts) return { z, y };
+  const zo = new Float64Array(maxPts);
+  const yo = new Float64Array(maxPts);
+  for (let b = 0; b < maxPts; b++) {
+    const i0 = Math.floor((b * n) / maxPts);
+    const i1 = Math.floor(((b + 1) * n) / maxPts);
+    let best = i0;
+    for (let i = i0 + 1; i < i1; i++) if (y[i] < y[best]) best = i;
+    zo[b] = z[best];
+    yo[b] = y[best];
+  }
+  return { z: zo, y: yo };
+}
+
+function curvesOf(scans: FamilyScan[]): ChiSquareCurve[] {
+  let min = Infinity;
+  for (const s of scans) for (const v of s.chi2) if (v < min) min = v;
+  return scans.map((s) => {
+    const z = new Float64Array(s.chi2.length);
+    const y = new Float64Array(s.chi2.length);
+    for (let i = 0; i < z.length; i++) {
+      z[i] = zOfShift((s.sMin + i) * SCAN_BINNING, DLOG10);
+      y[i] = s.chi2[i] - min;
+    }
+    const d = decimateCurve(z, y, CURVE_MAX_POINTS);
+    return { family: s.family.id, z: d.z, deltaChi2: d.y };
+  });
+}
+
+function failed(spectrum: Spectrum, message: string): FitResult {
+  const wl = spectrum.wavelengthA;
+  return {
+    file: spectrum.file,
+    status: 'failed',
+    error: message.replace(/[\r\n]+/g, ' ').trim(),
+    candidates: [],
+    z: NaN,
+    zErr: NaN,
+    class: 'unknown',
+    score: 0,
+    confidence: 'none',
+    chi2Gap: NaN,
+    nFeatures: 0,
+    curves: [],
+    lines: [],
+    noiseEstimated: spectrum.ivar === null,
+    templateSet: TEMPLATE_SET_ID,
+    engineVersion: ENGINE_VERSION,
+    input: { nPix: wl.length, lambdaMinA: wl[0], lambdaMaxA: wl[wl.length - 1], medianSnr: NaN, meta: spectrum.meta, format: spectrum.format },
+  };
+}
+
+function assemble(spectrum: Spectrum, p: Prepared, ordered: RefinedCandidate[], options: FitOptions): FitResult {
+  if (ordered.length === 0) return failed(spectrum, 'no chi-square minimum found in the redshift range');
+  const best = ordered[0];
+  const chi2Gap = ordered.length > 1 ? ordered[1].chi2 - best.chi2 : Infinity;
+  const sig = lineSignificances(p.fine, DLOG10, best.family, best.z);
+  const feats = countFeatures(sig);
+  const dPoly = polyOnlyChi2(p.ctx) - best.chi2;
+  let cls: SpectrumClass = best.family.class;
+  if (dPoly < UNKNOWN_DCHI2 || (feats.n === 0 && chi2Gap < 1)) cls = 'unknown';
+  const score = confidenceScore({ cls, chi2Gap, nFeatures: feats.n, featureSnrs: feats.snrs, atEdge: best.atEdge });
+  const candidates: Candidate[] = ordered.map((c) => candidateToContract(c, best.chi2));
+  let lines: LineMeasurement[] = [];
+  if (options.measureLines !== false && cls !== 'unknown') {
+    try {
+      lines = measureLines(spectrum, best.z, cls);
+    } catch {
+      lines = [];
+    }
+  }
+  return {
+    file: spectrum.file,
+    status: 'ok',
+    candidates,
+    z: best.z,
+    zErr: best.zErr,
+    class: cls,
+    score,
+    confidence: gradeOf(score),
+    chi2Gap,
+    nFeatures: feats.n,
+    curves: curvesOf(p.scans),
+    lines,
+    noiseEstimated: p.noiseEstimated,
+    templateSet: TEMPLATE_SET_ID,
+    engineVersion: ENGINE_VERSION,
+    input: p.input,
+  };
+}
+
+function guarded(spectrum: Spectrum, run: () => FitResult): FitResult {
+  try {
+    return run();
+  } catch (e) {
+    return failed(spectrum, `internal fitting error: ${(e as Error)?.message ?? String(e)}`);
+  }
+}
+
+/** Fit every template family over its full redshift range. Never throws on a valid Spectrum. */
+export function fitSpectrum(spectrum: Spectrum, options: FitOptions = {}): FitResult {
+  return guarded(spectrum, () => {
+    const p = prepare(spectrum, options);
+    if (typeof p === 'string') return failed(spectrum, p);
+    const all: RefinedCandidate[] = [];
+    for (const fs of p.scans) all.push(...familyCandidates(p, fs, fs.lo, fs.hi, refineCount(fs.family), false));
+    return assemble(spectrum, p, orderCandidates(mergeDistinct(all)), options);
+  });
+}
+
+/**
+ * Fit again with the best solution restricted to within +-REFIT_HALF_WIDTH_KMS
+ * of zCentre, across all families (a reviewer clicking the curve or naming a
+ * line). The candidates list starts with the best solution in the window,
+ * followed by the distinct solutions of the free fit outside it; chi2Gap is
+ * the next candidate's chi2 minus the chosen one's, and is negative when the
+ * free fit found a better solution elsewhere. A minimum on the window's edge
+ * is flagged atEdge.
+ */
+export function refitNear(spectrum: Spectrum, zCentre: number, options: FitOptions = {}): FitResult {
+  return guarded(spectrum, () => {
+    if (!Number.isFinite(zCentre) || zCentre <= -1) return failed(spectrum, `cannot refit near z = ${zCentre}`);
+    const p = prepare(spectrum, options);
+    if (typeof p === 'string') return failed(spectrum, p);
+    const centre = shiftOfZ(zCentre, DLOG10);
+    const half = pixelsOfVelocity(REFIT_HALF_WIDTH_KMS, DLOG10);
+    const wLo = Math.ceil(centre - half);
+    const wHi = Math.floor(centre + half);
+    const inside: RefinedCandidate[] = [];
+    for (const fs of p.scans) {
+      const lo = Math.max(fs.lo, wLo);
+      const hi = Math.min(fs.hi, wHi);
+      if (hi - lo < 2) continue;
+      inside.push(...familyCandidates(p, fs, lo, hi, 1, true));
+    }
+    if (inside.length === 0) return failed(spectrum, `no template family covers z = ${zCentre.toFixed(4)}`);
+    const chosen = orderCandidates(mergeDistinct(inside))[0];
+    const free: RefinedCandidate[] = [];
+    for (const fs of p.scans) free.push(...familyCandidates(p, fs, fs.lo, fs.hi, refineCount(fs.family), false));
+    const others = mergeDistinct(free).filter(
+      (c) => Math.abs(velocitySeparationKms(c.z, chosen.z)) >= Math.max(distinctKms(c.family.class), distinctKms(chosen.family.class)),
+    );
+    return assemble(spectrum, p, [chosen, ...others], options);
+  });
+}

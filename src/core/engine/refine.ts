@@ -1,0 +1,154 @@
+/**
+ * The full model of a family at one whole-pixel shift on the fine grid, by
+ * direct sums: every basis vector (with its observed-frame modulation, e.g.
+ * the mean Lyman-alpha forest), the continuum polynomial, non-negative
+ * amplitudes. Used only around the best few minima of the fast scan.
+ */
+import { makeNnlsWork, nnlsNormal } from './linalg';
+import { forestDepth } from './forest';
+import type { TemplateFamily } from './templates';
+import { polyBasis, scanConstants, type ScanConstants, type ScanData } from './scan';
+
+/** Everything about one spectrum that the full-model evaluations share. */
+export interface RefineContext {
+  /** Pixel size of data, log10(lambda). */
+  dlog10: number;
+  data: ScanData;
+  P: number;
+  poly: Float64Array[];
+  consts: ScanConstants;
+  /** Observed-frame modulation per pixel: mean forest depth 1 - F(lambda). */
+  forestDepth: Float64Array;
+}
+
+export function makeRefineContext(data: ScanData, P: number, dlog10: number): RefineContext {
+  const n = data.flux.length;
+  const fd = new Float64Array(n);
+  for (let i = 0; i < n; i++) fd[i] = forestDepth(Math.pow(10, (data.k0 + i) * dlog10));
+  return { data, dlog10, P, poly: polyBasis(n, P), consts: scanConstants(data, P), forestDepth: fd };
+}
+
+interface Column {
+  i0: number;
+  v: Float64Array;
+}
+
+/** Column of vector j at shift s over the data pixels it touches (null when none). */
+function column(ctx: RefineContext, family: TemplateFamily, j: number, s: number): Column | null {
+  const { data } = ctx;
+  const n = data.flux.length;
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const p of family.vectors[j].pieces) {
+    if (p.rest.lo > p.rest.hi) continue;
+    lo = Math.min(lo, p.rest.lo);
+    hi = Math.max(hi, p.rest.hi);
+  }
+  const i0 = Math.max(0, lo + s - data.k0);
+  const i1 = Math.min(n - 1, hi + s - data.k0);
+  if (!(i1 >= i0)) return null;
+  const v = new Float64Array(i1 - i0 + 1);
+  for (const p of family.vectors[j].pieces) {
+    const { kStart, values } = p.rest;
+    const mod = p.modulation === 'forestDepth' ? ctx.forestDepth : null;
+    for (let i = i0; i <= i1; i++) {
+      const r = data.k0 + i - s - kStart;
+      if (r < 0 || r >= values.length) continue;
+      const t = values[r];
+      if (t !== 0) v[i - i0] += mod ? t * mod[i] : t;
+    }
+  }
+  return { i0, v };
+}
+
+export interface FullFit {
+  /** Fine-grid shift (pixels). */
+  shift: number;
+  chi2: number;
+  /** Good pixels minus free parameters. */
+  dof: number;
+  /** Polynomial coefficients then template amplitudes. */
+  x: Float64Array;
+  /** Which template amplitudes are in use (non-zero). */
+  active: boolean[];
+}
+
+/**
+ * Chi-square of the full model at shift s. With `fixedActive`, the template
+ * set is fixed and solved without constraints (for a smooth curvature).
+ */
+export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: number, fixedActive?: boolean[]): FullFit {
+  const { data, P, poly, consts } = ctx;
+  const K = family.vectors.length;
+  const n = P + K;
+  const M = new Float64Array(n * n);
+  const b = new Float64Array(n);
+  for (let a = 0; a < P; a++) {
+    b[a] = consts.pf[a];
+    for (let c = 0; c < P; c++) M[a * n + c] = consts.pp[a * P + c];
+  }
+  const cols: (Column | null)[] = [];
+  for (let j = 0; j < K; j++) cols.push(column(ctx, family, j, s));
+  const w = data.ivar;
+  const f = data.flux;
+  for (let j = 0; j < K; j++) {
+    const cj = cols[j];
+    if (!cj) continue;
+    const r = P + j;
+    let bf = 0;
+    const pa = new Float64Array(P);
+    for (let q = 0; q < cj.v.length; q++) {
+      const i = cj.i0 + q;
+      const wv = w[i] * cj.v[q];
+      if (wv === 0) continue;
+      bf += wv * f[i];
+      for (let a = 0; a < P; a++) pa[a] += wv * poly[a][i];
+    }
+    b[r] = bf;
+    for (let a = 0; a < P; a++) {
+      M[r * n + a] = pa[a];
+      M[a * n + r] = pa[a];
+    }
+    for (let k = j; k < K; k++) {
+      const ck = cols[k];
+      if (!ck) continue;
+      const from = Math.max(cj.i0, ck.i0);
+      const to = Math.min(cj.i0 + cj.v.length, ck.i0 + ck.v.length);
+      let sum = 0;
+      for (let i = from; i < to; i++) sum += w[i] * cj.v[i - cj.i0] * ck.v[i - ck.i0];
+      M[r * n + P + k] = sum;
+      M[(P + k) * n + r] = sum;
+    }
+  }
+  const tiny = 1e-10 * Math.max(consts.sumW, 1e-300);
+  const x = new Float64Array(n);
+  const work = makeNnlsWork(n);
+  let explained: number;
+  if (fixedActive) {
+    const usable = (j: number) => j < P || (fixedActive[j - P] && M[j * n + j] > tiny);
+    explained = nnlsNormal(M, b, n, n, usable, x, work);
+  } else {
+    explained = nnlsNormal(M, b, n, P, (j) => j < P || M[j * n + j] > tiny, x, work);
+  }
+  const active: boolean[] = [];
+  let nPar = P;
+  for (let j = 0; j < K; j++) {
+    active.push(x[P + j] !== 0);
+    if (x[P + j] !== 0) nPar++;
+  }
+  return { shift: s, chi2: consts.fwf - explained, dof: Math.max(1, consts.nGood - nPar), x, active };
+}
+
+/** Model flux per data pixel for a full fit (normalised units), for plots and checks. */
+export function modelFlux(ctx: RefineContext, family: TemplateFamily, fit: FullFit): Float64Array {
+  const n = ctx.data.flux.length;
+  const out = new Float64Array(n);
+  for (let a = 0; a < ctx.P; a++) for (let i = 0; i < n; i++) out[i] += fit.x[a] * ctx.poly[a][i];
+  family.vectors.forEach((_, j) => {
+    const amp = fit.x[ctx.P + j];
+    if (!amp) return;
+    const c = column(ctx, family, j, fit.shift);
+    if (c) for (let q = 0; q < c.v.length; q++) out[c.i0 + q] += amp * c.v[q];
+  });
+  return out;
+}

@@ -72,10 +72,16 @@ async function main(argv: string[]): Promise<number> {
   const started = Date.now();
   let done = 0;
   let failed = 0;
+  const tty = process.stderr.isTTY;
+  let lastReport = 0;
   const progress = (final = false) => {
     if (args.flags.has('quiet')) return;
+    // On a terminal one line rewritten in place; in a log file a line every few seconds.
+    if (!tty && !final && Date.now() - lastReport < 5000) return;
+    lastReport = Date.now();
     const rate = done / Math.max(1e-3, (Date.now() - started) / 1000);
-    process.stderr.write(`\rfitted ${done}/${files.length}, ${failed} failed, ${rate.toFixed(1)} spectra/s${final ? '\n' : ''}`);
+    const text = `fitted ${done}/${files.length}, ${failed} failed, ${rate.toFixed(1)} spectra/s`;
+    process.stderr.write(tty ? `\r${text}${final ? '\n' : ''}` : `${text}\n`);
   };
 
   // Bounded window: at most `window` files in flight or waiting to be written in order.
@@ -103,7 +109,7 @@ async function main(argv: string[]): Promise<number> {
     done++;
     if (row.error) failed++;
     await write(writer.row(row));
-    if (done % 10 === 0 || done === files.length) progress();
+    progress();
   }
   await write(writer.end());
   progress(true);

@@ -80,7 +80,8 @@ async function main(argv: string[]): Promise<number> {
     if (!tty && !final && Date.now() - lastReport < 5000) return;
     lastReport = Date.now();
     const rate = done / Math.max(1e-3, (Date.now() - started) / 1000);
-    const text = `fitted ${done}/${files.length}, ${failed} failed, ${rate.toFixed(1)} spectra/s`;
+    const peakMb = process.resourceUsage().maxRSS / 1024; // kilobytes -> MB; covers every worker thread
+    const text = `fitted ${done}/${files.length}, ${failed} failed, ${rate.toFixed(1)} spectra/s, peak memory ${peakMb.toFixed(0)} MB`;
     process.stderr.write(tty ? `\r${text}${final ? '\n' : ''}` : `${text}\n`);
   };
 

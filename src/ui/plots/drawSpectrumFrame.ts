@@ -51,6 +51,9 @@ export interface FrameStats {
   columns: number;
 }
 
+/** Vertices of one column closer than this (CSS px) are merged: they add stroke work but no pixels. */
+const SAME_VERTEX_PX = 0.25;
+
 /** Height of the masked-pixel strip along the bottom of the plot, CSS px. */
 export const MASK_STRIP_PX = 6;
 /** Canvas coordinates are clamped to this many CSS px beyond the frame, so wild values cannot break a path. */
@@ -87,7 +90,7 @@ export function drawSpectrumFrame(ctx: Canvas2DLike, f: SpectrumFrame): FrameSta
   ctx.beginPath();
   ctx.rect(left, top, width, height);
   ctx.clip();
-  ctx.lineJoin = 'round';
+  ctx.lineJoin = 'miter';
   ctx.setLineDash([]);
 
   drawMask(ctx, f, i0, i1, X, dpr);
@@ -96,15 +99,7 @@ export function drawSpectrumFrame(ctx: Canvas2DLike, f: SpectrumFrame): FrameSta
   if (bandLow && bandHigh) {
     ctx.globalAlpha = SPECTRUM_COLOURS.bandAlpha;
     ctx.fillStyle = SPECTRUM_COLOURS.band;
-    ctx.beginPath();
-    if (byColumns) {
-      const lo = decimateMinMax(w, bandLow, x0, x1, nCols);
-      const hi = decimateMinMax(w, bandHigh, x0, x1, nCols);
-      traceBandColumns(ctx, lo, hi, colX, Y);
-    } else {
-      traceBandPoints(ctx, w, bandLow, bandHigh, i0, i1, X, Y);
-    }
-    ctx.fill();
+    fillBandColumns(ctx, w, bandLow, bandHigh, x0, x1, nCols, left, dpr, Y);
     ctx.globalAlpha = 1;
   }
 
@@ -150,7 +145,12 @@ export function tracePoints(
   }
 }
 
-/** Per column: first -> min -> max -> last at the column centre; an empty column lifts the pen. */
+/**
+ * Per column: first -> min -> max -> last at the column centre; an empty column
+ * lifts the pen. Min and max are skipped when the column is monotonic, and a
+ * vertex within SAME_VERTEX_PX of the one before is skipped, so a smooth curve
+ * costs at most two vertices per column (a wide stroke pays for every join).
+ */
 export function traceColumns(ctx: Canvas2DLike, cols: MinMaxColumns, colX: (c: number) => number, Y: (v: number) => number): void {
   let pen = false;
   for (let c = 0; c < cols.nColumns; c++) {
@@ -159,57 +159,67 @@ export function traceColumns(ctx: Canvas2DLike, cols: MinMaxColumns, colX: (c: n
       continue;
     }
     const px = colX(c);
-    if (pen) ctx.lineTo(px, Y(cols.first[c]));
-    else ctx.moveTo(px, Y(cols.first[c]));
-    ctx.lineTo(px, Y(cols.min[c]));
-    ctx.lineTo(px, Y(cols.max[c]));
-    ctx.lineTo(px, Y(cols.last[c]));
+    let last = Y(cols.first[c]);
+    if (pen) ctx.lineTo(px, last);
+    else ctx.moveTo(px, last);
+    const first = cols.first[c];
+    const lastV = cols.last[c];
+    // Monotonic inside the column: first and last are already the extremes.
+    const monotonic = (cols.min[c] === first && cols.max[c] === lastV) || (cols.max[c] === first && cols.min[c] === lastV);
+    if (!monotonic) {
+      const yMin = Y(cols.min[c]);
+      const yMax = Y(cols.max[c]);
+      if (Math.abs(yMin - last) > SAME_VERTEX_PX) ctx.lineTo(px, (last = yMin));
+      if (Math.abs(yMax - last) > SAME_VERTEX_PX) ctx.lineTo(px, (last = yMax));
+    }
+    const yLast = Y(lastV);
+    if (Math.abs(yLast - last) > SAME_VERTEX_PX) ctx.lineTo(px, yLast);
     pen = true;
   }
 }
 
-/** Closed band polygons, one per run of samples where both edges are finite. */
-function traceBandPoints(
+/**
+ * The 1-sigma band, one device-pixel-wide rectangle per column from the highest
+ * upper edge to the lowest lower edge of the samples in it; a column with no
+ * sample (zoomed in past one sample per column) takes the band linearly
+ * interpolated at its centre between the samples either side, unless a gap
+ * (NaN) lies between them. Rectangles take the fast fill path, where a jagged
+ * polygon of thousands of vertices is slow to rasterise in software.
+ */
+function fillBandColumns(
   ctx: Canvas2DLike,
-  x: Float64Array,
-  lo: Float64Array,
-  hi: Float64Array,
-  i0: number,
-  i1: number,
-  X: (v: number) => number,
+  w: Float64Array,
+  low: Float64Array,
+  high: Float64Array,
+  x0: number,
+  x1: number,
+  nCols: number,
+  left: number,
+  dpr: number,
   Y: (v: number) => number,
 ): void {
-  let i = i0;
-  while (i < i1) {
-    while (i < i1 && !(Number.isFinite(lo[i]) && Number.isFinite(hi[i]))) i++;
-    const a = i;
-    while (i < i1 && Number.isFinite(lo[i]) && Number.isFinite(hi[i])) i++;
-    if (i - a < 2) continue;
-    ctx.moveTo(X(x[a]), Y(hi[a]));
-    for (let j = a + 1; j < i; j++) ctx.lineTo(X(x[j]), Y(hi[j]));
-    for (let j = i - 1; j >= a; j--) ctx.lineTo(X(x[j]), Y(lo[j]));
-    ctx.closePath();
-  }
-}
-
-/** Band by columns: along the top of each column's upper edge, back along the bottom of its lower edge. */
-function traceBandColumns(ctx: Canvas2DLike, lo: MinMaxColumns, hi: MinMaxColumns, colX: (c: number) => number, Y: (v: number) => number): void {
-  const n = lo.nColumns;
-  let c = 0;
-  const ok = (k: number) => lo.count[k] > 0 && hi.count[k] > 0;
-  while (c < n) {
-    while (c < n && !ok(c)) c++;
-    const a = c;
-    while (c < n && ok(c)) c++;
-    if (c === a) continue;
-    // a one-column run still gets a sliver half a column wide either side
-    const dx = c - a === 1 ? 0.5 : 0;
-    ctx.moveTo(colX(a) - dx, Y(hi.max[a]));
-    for (let k = a + 1; k < c; k++) ctx.lineTo(colX(k), Y(hi.max[k]));
-    ctx.lineTo(colX(c - 1) + dx, Y(hi.max[c - 1]));
-    for (let k = c - 1; k >= a; k--) ctx.lineTo(colX(k) + (k === c - 1 ? dx : 0), Y(lo.min[k]));
-    ctx.lineTo(colX(a) - dx, Y(lo.min[a]));
-    ctx.closePath();
+  const lo = decimateMinMax(w, low, x0, x1, nCols);
+  const hi = decimateMinMax(w, high, x0, x1, nCols);
+  const colW = 1 / dpr;
+  const stepA = (x1 - x0) / nCols;
+  let j = lowerBound(w, x0);
+  for (let c = 0; c < nCols; c++) {
+    let top: number;
+    let bottom: number;
+    if (lo.count[c] > 0 && hi.count[c] > 0) {
+      top = Y(hi.max[c]);
+      bottom = Y(lo.min[c]);
+    } else {
+      const xc = x0 + (c + 0.5) * stepA;
+      while (j < w.length && w[j] < xc) j++;
+      if (j === 0 || j >= w.length) continue;
+      const a = j - 1;
+      if (!(Number.isFinite(low[a]) && Number.isFinite(high[a]) && Number.isFinite(low[j]) && Number.isFinite(high[j]))) continue;
+      const t = (xc - w[a]) / (w[j] - w[a]);
+      top = Y(high[a] + t * (high[j] - high[a]));
+      bottom = Y(low[a] + t * (low[j] - low[a]));
+    }
+    ctx.fillRect(left + c * colW, top, colW, Math.max(colW, bottom - top));
   }
 }
 

@@ -1,7 +1,7 @@
 /// <reference types="vitest/config" />
 import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
-import { demoSetPlugin } from './scripts/demoSetPlugin';
+import { demoSetPlugin } from './scripts/demoSetPlugin.ts';
 
 export default defineConfig({
   plugins: [react(), demoSetPlugin('sample-spectra')],

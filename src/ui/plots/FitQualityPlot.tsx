@@ -42,6 +42,8 @@ export interface FitQualityPlotProps {
 /** Space around the plot rectangle (legend on top, axes left and bottom), CSS px. */
 export const FIT_MARGINS = { top: 24, right: 16, bottom: 36, left: 56 } as const;
 export const FIT_DEFAULT_HEIGHT_PX = 200;
+/** Gap between the x axis and delta chi-square = 0, CSS px. */
+export const FIT_FLOOR_PX = 10;
 export const FIT_FALLBACK_WIDTH_PX = 800;
 /**
  * Linear-to-log crossover of the y axis, in delta chi-square: below it the
@@ -83,15 +85,17 @@ export function fitQualityScales(
   if (!(c1 > c0)) c1 = c0 + 10;
   const m = FIT_MARGINS;
   const x = d3.scaleLinear().domain([z0, z1]).range([m.left, widthPx - m.right]);
-  const y = d3.scaleSymlog().constant(SYMLOG_CONSTANT).domain([c0, c1 * 1.15]).range([heightPx - m.bottom, m.top]);
+  // Delta chi-square 0 (the best candidate) sits FIT_FLOOR_PX above the axis so its mark stays clear of it.
+  const y = d3.scaleSymlog().constant(SYMLOG_CONSTANT).domain([c0, c1 * 1.15]).range([heightPx - m.bottom - FIT_FLOOR_PX, m.top]);
   return { x, y };
 }
 
-/** Ticks for the symlog axis: 0 and powers of ten up to the top of the domain. */
+/** Ticks for the symlog axis: 0 and powers of ten from 10 up (1 would sit on top of 0). */
 function symlogTicks(y: d3.ScaleSymLog<number, number>): number[] {
   const top = y.domain()[1];
   const out = [0];
-  for (let p = 1; p <= top; p *= 10) out.push(p);
+  for (let p = 10; p <= top; p *= 10) out.push(p);
+  if (out.length === 1 && top >= 1) out.push(1);
   return out;
 }
 
@@ -146,7 +150,7 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
       const r = svgEl.getBoundingClientRect();
       return [e.clientX - r.left, e.clientY - r.top];
     };
-    const inside = ([px, py]: [number, number]) => px >= x.range()[0] && px <= x.range()[1] && py >= y.range()[1] && py <= y.range()[0];
+    const inside = ([px, py]: [number, number]) => px >= x.range()[0] && px <= x.range()[1] && py >= y.range()[1] && py <= y.range()[0] + FIT_FLOOR_PX;
     svg.on('click.fq', (e: MouseEvent) => {
       const p = local(e);
       if (curves.length === 0 || !inside(p)) return;
@@ -205,12 +209,13 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
       .attr('stroke-dasharray', (c) => familyStyle(familyIndex.get(c.family) ?? 0).dash || null)
       .attr('d', pathOf);
 
-    const bottom = y.range()[0];
+    const bottom = y.range()[0] + FIT_FLOOR_PX;
     L.axes.selectAll('*').remove();
     L.axes.append('g').attr('transform', `translate(0,${bottom})`).call(d3.axisBottom(x).ticks(Math.max(2, Math.floor((x.range()[1] - x.range()[0]) / 80))));
     L.axes
       .append('g')
       .attr('transform', `translate(${x.range()[0]},0)`)
+      .call((g) => g.append('line').attr('y1', y.range()[0]).attr('y2', bottom).attr('stroke', 'currentColor'))
       .call(d3.axisLeft(y).tickValues(symlogTicks(y)).tickFormat((v) => d3.format('~s')(+v)));
     L.axes
       .append('text')

@@ -19,6 +19,8 @@ export const SPECTRUM_MARGINS = { top: 42, right: 16, bottom: 38, left: 62 } as 
 /** Rows of line labels inside the top of the plot, and their spacing, CSS px. */
 export const LABEL_ROWS = 3;
 export const LABEL_ROW_PX = 12;
+/** Height at the top of the plot kept free of data for the line labels and glyphs, CSS px. */
+export const LABEL_BAND_PX = LABEL_ROWS * LABEL_ROW_PX + 8;
 /** Narrowest view, in median pixel steps of the spectrum. */
 export const MIN_VIEW_PIXELS = 10;
 
@@ -221,7 +223,7 @@ export class SpectrumPlotController {
     if (!d || !this.series || this.widthPx <= 0 || this.heightPx <= 0) return;
     this.dirty = 0;
     const geometry = DIRTY_DATA | DIRTY_SIZE | DIRTY_VIEW;
-    if (d & (DIRTY_DATA | DIRTY_VIEW)) this.fitY();
+    if (d & (DIRTY_DATA | DIRTY_VIEW | DIRTY_SIZE)) this.fitY();
     if (d & geometry) this.drawCanvas();
     // DIRTY_Z also covers the flux unit: both only change axis titles and ticks.
     if (d & (geometry | DIRTY_Z)) this.drawAxes();
@@ -275,7 +277,11 @@ export class SpectrumPlotController {
 
   private fitY(): void {
     const [i0, i1] = this.visibleRange();
-    this.yDomain = robustYRange(this.series!.flux, i0, i1) ?? (this.model ? robustYRange(this.model, i0, i1) : null) ?? [0, 1];
+    const [lo, hi] = robustYRange(this.series!.flux, i0, i1) ?? (this.model ? robustYRange(this.model, i0, i1) : null) ?? [0, 1];
+    // Keep the label rows clear: the data fills the plot below them.
+    const h = this.plotRect().height;
+    const reserve = LABEL_BAND_PX < h / 2 ? LABEL_BAND_PX / (h - LABEL_BAND_PX) : 0;
+    this.yDomain = [lo, hi + (hi - lo) * reserve];
   }
 
   private drawCanvas(): void {

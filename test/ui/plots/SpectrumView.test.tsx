@@ -184,6 +184,22 @@ describe('SpectrumView redraw discipline', () => {
     expect(fluxStroke.subpaths.flat().length).toBeLessThanOrEqual(4 * (SPECTRUM_FALLBACK_WIDTH_PX - SPECTRUM_MARGINS.left - SPECTRUM_MARGINS.right));
   });
 
+  it('keeps the zoom window when only the smoothing changes', () => {
+    const { container, rerender } = render(<SpectrumView {...props()} />);
+    fireEvent.keyDown(svgOf(container), { key: '+' });
+    const v = view(container);
+    rerender(<SpectrumView {...props({ smoothingPx: 7 })} />);
+    expect(view(container)).toEqual(v);
+  });
+
+  it('marks highlightA with a rule at its x, and only while it is in view', () => {
+    const { container, rerender } = render(<SpectrumView {...props({ highlightA: 6000 })} />);
+    const rule = container.querySelector('line.sm-highlight-line')!;
+    expect(Number(rule.getAttribute('x1'))).toBeCloseTo(fullScale()(6000), 6);
+    rerender(<SpectrumView {...props({ highlightA: 12_000 })} />);
+    expect(container.querySelector('line.sm-highlight-line')).toBeNull();
+  });
+
   it('renders without a canvas context (getContext returns null)', () => {
     vi.spyOn(HTMLCanvasElement.prototype, 'getContext').mockReturnValue(null);
     const { container } = render(<SpectrumView {...props()} />);

@@ -1,0 +1,21 @@
+/**
+ * npm run bench: every benchmark, printed (never asserted).
+ *   reader throughput (demo set, real set), engine speed, headless fitter
+ *   throughput and peak memory (1,000 spectra; add --big for 10,000 streamed),
+ *   and the browser figures (needs Chromium).
+ */
+import { benchRead } from './bench-read';
+import { benchCli } from './bench-cli';
+
+const big = process.argv.includes('--big');
+console.log('== reader throughput ==');
+benchRead({ minSeconds: 1 });
+console.log('\n== headless fitter ==');
+benchCli({ n: 1000, big });
+try {
+  const { benchBrowser } = await import('./bench-browser');
+  console.log('\n== browser ==');
+  await benchBrowser();
+} catch (e) {
+  console.log(`\n(browser benchmark not run: ${(e as Error).message})`);
+}

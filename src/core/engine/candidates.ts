@@ -120,17 +120,18 @@ function dlogOf(ctx: RefineContext): number {
 }
 
 /**
- * Sort by chi2 and drop any candidate within the distinct velocity of a
- * better one (whatever its family).
+ * Drop any candidate within the distinct velocity of a better one (whatever
+ * its family; non-edge minima are kept in preference to edge ones), sort by chi2.
  */
 export function mergeDistinct(cands: RefinedCandidate[]): RefinedCandidate[] {
-  const sorted = cands.slice().sort((a, b) => a.chi2 - b.chi2);
+  // Non-edge minima first: an edge minimum never hides a proper one nearby.
+  const sorted = cands.slice().sort((a, b) => Number(a.atEdge) - Number(b.atEdge) || a.chi2 - b.chi2);
   const kept: RefinedCandidate[] = [];
   for (const c of sorted) {
     const clash = kept.some((k) => Math.abs(velocitySeparationKms(k.z, c.z)) < Math.max(distinctKms(k.family.class), distinctKms(c.family.class)));
     if (!clash) kept.push(c);
   }
-  return kept;
+  return kept.sort((a, b) => a.chi2 - b.chi2);
 }
 
 /**

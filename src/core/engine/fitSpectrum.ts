@@ -20,7 +20,7 @@ import { measureLines } from './measureLines';
 import { makeRefineContext, type RefineContext } from './refine';
 import { binLogSpectrum, resampleToLogGrid } from './resample';
 import { binRest, type RestArray } from './restArray';
-import { dataSpectra, fftSizeFor, scanFFT, type DataSpectra, type ScanData } from './scan';
+import { dataSpectra, fftSizeFor, scanConstants, scanFFT, type DataSpectra, type ScanConstants, type ScanData } from './scan';
 import { TEMPLATE_SET_ID, templateFamilies, type TemplateFamily } from './templates';
 import { ENGINE_VERSION } from './version';
 
@@ -35,8 +35,20 @@ export interface FitOptions {
   measureLines?: boolean;
 }
 
-/** Pixels of the fine grid combined into one for the scan (2 -> 138 km/s). */
+/**
+ * Fine pixels combined into one for the scan: 2 (138 km/s) for narrow-line and
+ * stellar families; 4 (276 km/s) for quasars, whose lines are >= 2000 km/s wide.
+ */
 export const SCAN_BINNING = 2;
+export const QSO_SCAN_BINNING = 4;
+
+export function scanBinningOf(f: TemplateFamily): number {
+  return f.class === 'qso' ? QSO_SCAN_BINNING : SCAN_BINNING;
+}
+
+/** Scan minima refined in all, and at most per family. */
+export const REFINE_TOTAL = 7;
+export const REFINE_PER_FAMILY = 3;
 /** Fewest usable log-grid pixels a fit accepts. */
 export const MIN_GOOD_PIXELS = 50;
 /** Largest number of points per chi-square curve. */
@@ -50,19 +62,17 @@ export const REFIT_HALF_WIDTH_KMS = 3000;
  */
 export const UNKNOWN_DCHI2 = 25;
 
-/** Scan minima refined per family. */
-function refineCount(f: TemplateFamily): number {
-  return f.class === 'star' ? 1 : 3;
-}
-
 interface FamilyScan {
   family: TemplateFamily;
   /** Fine-grid shift range of the family (after options). */
   lo: number;
   hi: number;
-  /** Coarse shift of chi2[0]. */
+  /** Scan binning (fine pixels per scan pixel) and the scan shift of chi2[0]. */
+  binning: number;
   sMin: number;
   chi2: Float64Array;
+  /** chi2 of the polynomial alone on the scan data: chi2 improvements are comparable across binnings. */
+  chi2Poly: number;
 }
 
 interface Prepared {
@@ -75,11 +85,11 @@ interface Prepared {
 
 const binnedCache = new WeakMap<TemplateFamily, RestArray[]>();
 
-/** A family's scan vectors binned like the scan data (built once per family). */
+/** A family's scan vectors binned like its scan data (built once per family). */
 function binnedScanVectors(f: TemplateFamily): RestArray[] {
   let v = binnedCache.get(f);
   if (!v) {
-    v = f.scanVectors.map((r) => binRest(r, SCAN_BINNING));
+    v = f.scanVectors.map((r) => binRest(r, scanBinningOf(f)));
     binnedCache.set(f, v);
   }
   return v;
@@ -119,27 +129,37 @@ function prepare(spectrum: Spectrum, options: FitOptions): Prepared | string {
     ivar: ls.ivar.map((w) => w * scale * scale),
   };
   const P = options.polyTerms ?? 3;
-  const coarseLs = binLogSpectrum({ ...ls, flux: fine.flux, ivar: fine.ivar }, SCAN_BINNING);
-  const coarse: ScanData = { k0: coarseLs.k0, flux: coarseLs.flux, ivar: coarseLs.ivar };
+  const binned = new Map<number, ScanData>();
+  const dataAt = (b: number): ScanData => {
+    let d = binned.get(b);
+    if (!d) {
+      const bl = binLogSpectrum({ ...ls, flux: fine.flux, ivar: fine.ivar }, b);
+      d = { k0: bl.k0, flux: bl.flux, ivar: bl.ivar };
+      binned.set(b, d);
+    }
+    return d;
+  };
   const wanted = options.families ? new Set(options.families) : null;
-  const dsCache = new Map<number, DataSpectra>();
+  const dsCache = new Map<string, DataSpectra>();
   const scans: FamilyScan[] = [];
   for (const family of templateFamilies()) {
     if (wanted && !wanted.has(family.id)) continue;
     const zMax = Math.min(family.zMax, options.zMax ?? Infinity);
     const lo = Math.ceil(shiftOfZ(family.zMin) - 1e-9);
     const hi = Math.floor(shiftOfZ(zMax) + 1e-9);
-    const sLo = Math.ceil(lo / SCAN_BINNING);
-    const sHi = Math.floor(hi / SCAN_BINNING);
+    const b = scanBinningOf(family);
+    const sLo = Math.ceil(lo / b);
+    const sHi = Math.floor(hi / b);
     if (sHi < sLo) continue;
-    const L = fftSizeFor(coarse.flux.length, sHi - sLo + 1);
-    let ds = dsCache.get(L);
+    const data = dataAt(b);
+    const L = fftSizeFor(data.flux.length, sHi - sLo + 1);
+    let ds = dsCache.get(`${b}|${L}`);
     if (!ds) {
-      ds = dataSpectra(coarse, P, L);
-      dsCache.set(L, ds);
+      ds = dataSpectra(data, P, L);
+      dsCache.set(`${b}|${L}`, ds);
     }
-    const r = scanFFT(coarse, binnedScanVectors(family), sLo, sHi, P, `${family.id}@${SCAN_BINNING}`, ds);
-    scans.push({ family, lo, hi, sMin: sLo, chi2: r.chi2 });
+    const r = scanFFT(data, binnedScanVectors(family), sLo, sHi, P, `${family.id}@${b}`, ds, DLOG10 * b);
+    scans.push({ family, lo, hi, binning: b, sMin: sLo, chi2: r.chi2, chi2Poly: polyOnlyChi2(scanConstants(data, P), P) });
   }
   if (scans.length === 0) return 'no template family covers the requested redshift range';
   const ctx = makeRefineContext(fine, P, DLOG10);
@@ -152,21 +172,40 @@ function prepare(spectrum: Spectrum, options: FitOptions): Prepared | string {
   };
 }
 
-/** Refine the best scan minima of each family between fine shifts lo..hi. */
-function familyCandidates(p: Prepared, fs: FamilyScan, lo: number, hi: number, count: number, windowEdges: boolean): RefinedCandidate[] {
-  const from = Math.max(0, Math.ceil(lo / SCAN_BINNING) - fs.sMin);
-  const to = Math.min(fs.chi2.length - 1, Math.floor(hi / SCAN_BINNING) - fs.sMin);
-  if (to < from) return [];
-  const sep = Math.max(1, Math.floor(pixelsOfVelocity(distinctKms(fs.family.class)) / SCAN_BINNING));
-  const minima = localMinima(fs.chi2, sep, count, from, to);
-  return minima.map((m) =>
-    refineMinimum(p.ctx, fs.family, (fs.sMin + m) * SCAN_BINNING, lo, hi, windowEdges || lo === fs.lo, windowEdges || hi === fs.hi),
-  );
+interface ScanMinimum {
+  fs: FamilyScan;
+  /** Index into fs.chi2. */
+  index: number;
+  /** chi2 improvement over the polynomial alone (comparable across families). */
+  gain: number;
 }
 
-/** chi2 of the continuum polynomial alone (fine grid). */
-function polyOnlyChi2(ctx: RefineContext): number {
-  const { P, consts } = ctx;
+/** Distinct scan minima of one family between fine shifts lo..hi, best first. */
+function scanMinima(fs: FamilyScan, lo: number, hi: number, count: number): ScanMinimum[] {
+  const b = fs.binning;
+  const from = Math.max(0, Math.ceil(lo / b) - fs.sMin);
+  const to = Math.min(fs.chi2.length - 1, Math.floor(hi / b) - fs.sMin);
+  if (to < from) return [];
+  const sep = Math.max(1, Math.floor(pixelsOfVelocity(distinctKms(fs.family.class)) / b));
+  return localMinima(fs.chi2, sep, count, from, to).map((index) => ({ fs, index, gain: fs.chi2Poly - fs.chi2[index] }));
+}
+
+/** Refine one scan minimum on the fine grid between lo..hi. */
+function refineScanMinimum(p: Prepared, m: ScanMinimum, lo: number, hi: number, windowEdges: boolean): RefinedCandidate {
+  const { fs } = m;
+  return refineMinimum(p.ctx, fs.family, (fs.sMin + m.index) * fs.binning, lo, hi, windowEdges || lo === fs.lo, windowEdges || hi === fs.hi);
+}
+
+/** The free fit: the best REFINE_TOTAL scan minima across families (at most REFINE_PER_FAMILY each), refined. */
+function freeCandidates(p: Prepared): RefinedCandidate[] {
+  const pool: ScanMinimum[] = [];
+  for (const fs of p.scans) pool.push(...scanMinima(fs, fs.lo, fs.hi, REFINE_PER_FAMILY));
+  pool.sort((a, b) => b.gain - a.gain);
+  return pool.slice(0, REFINE_TOTAL).map((m) => refineScanMinimum(p, m, m.fs.lo, m.fs.hi, false));
+}
+
+/** chi2 of the continuum polynomial alone. */
+function polyOnlyChi2(consts: ScanConstants, P: number): number {
   if (P === 0) return consts.fwf;
   // Solve pp c = pf by Gaussian elimination (P is tiny).
   const A = Array.from({ length: P }, (_, a) => Array.from({ length: P }, (_, b) => consts.pp[a * P + b]));
@@ -208,15 +247,20 @@ export function decimateCurve(z: Float64Array, y: Float64Array, maxPts: number):
   return { z: zo, y: yo };
 }
 
+/**
+ * Curves as the best chi2 improvement over the polynomial (any family) minus
+ * this family's improvement at z: 0 at the deepest scan minimum, and
+ * comparable between families scanned at different binnings.
+ */
 function curvesOf(scans: FamilyScan[]): ChiSquareCurve[] {
-  let min = Infinity;
-  for (const s of scans) for (const v of s.chi2) if (v < min) min = v;
+  let bestGain = -Infinity;
+  for (const s of scans) for (const v of s.chi2) bestGain = Math.max(bestGain, s.chi2Poly - v);
   return scans.map((s) => {
     const z = new Float64Array(s.chi2.length);
     const y = new Float64Array(s.chi2.length);
     for (let i = 0; i < z.length; i++) {
-      z[i] = zOfShift((s.sMin + i) * SCAN_BINNING, DLOG10);
-      y[i] = s.chi2[i] - min;
+      z[i] = zOfShift((s.sMin + i) * s.binning, DLOG10);
+      y[i] = bestGain - (s.chi2Poly - s.chi2[i]);
     }
     const d = decimateCurve(z, y, CURVE_MAX_POINTS);
     return { family: s.family.id, z: d.z, deltaChi2: d.y };
@@ -252,7 +296,7 @@ function assemble(spectrum: Spectrum, p: Prepared, ordered: RefinedCandidate[], 
   const chi2Gap = ordered.length > 1 ? ordered[1].chi2 - best.chi2 : Infinity;
   const sig = lineSignificances(p.fine, DLOG10, best.family, best.z);
   const feats = countFeatures(sig);
-  const dPoly = polyOnlyChi2(p.ctx) - best.chi2;
+  const dPoly = polyOnlyChi2(p.ctx.consts, p.ctx.P) - best.chi2;
   let cls: SpectrumClass = best.family.class;
   if (dPoly < UNKNOWN_DCHI2 || (feats.n === 0 && chi2Gap < 1)) cls = 'unknown';
   const score = confidenceScore({ cls, chi2Gap, nFeatures: feats.n, featureSnrs: feats.snrs, atEdge: best.atEdge });
@@ -298,9 +342,7 @@ export function fitSpectrum(spectrum: Spectrum, options: FitOptions = {}): FitRe
   return guarded(spectrum, () => {
     const p = prepare(spectrum, options);
     if (typeof p === 'string') return failed(spectrum, p);
-    const all: RefinedCandidate[] = [];
-    for (const fs of p.scans) all.push(...familyCandidates(p, fs, fs.lo, fs.hi, refineCount(fs.family), false));
-    return assemble(spectrum, p, orderCandidates(mergeDistinct(all)), options);
+    return assemble(spectrum, p, orderCandidates(mergeDistinct(freeCandidates(p))), options);
   });
 }
 
@@ -327,12 +369,11 @@ export function refitNear(spectrum: Spectrum, zCentre: number, options: FitOptio
       const lo = Math.max(fs.lo, wLo);
       const hi = Math.min(fs.hi, wHi);
       if (hi - lo < 2) continue;
-      inside.push(...familyCandidates(p, fs, lo, hi, 1, true));
+      for (const m of scanMinima(fs, lo, hi, 1)) inside.push(refineScanMinimum(p, m, lo, hi, true));
     }
     if (inside.length === 0) return failed(spectrum, `no template family covers z = ${zCentre.toFixed(4)}`);
     const chosen = orderCandidates(mergeDistinct(inside))[0];
-    const free: RefinedCandidate[] = [];
-    for (const fs of p.scans) free.push(...familyCandidates(p, fs, fs.lo, fs.hi, refineCount(fs.family), false));
+    const free = freeCandidates(p);
     const others = mergeDistinct(free).filter(
       (c) => Math.abs(velocitySeparationKms(c.z, chosen.z)) >= Math.max(distinctKms(c.family.class), distinctKms(chosen.family.class)),
     );

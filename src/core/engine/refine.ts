@@ -7,7 +7,7 @@
 import { makeNnlsWork, nnlsNormal } from './linalg';
 import { forestDepth } from './forest';
 import type { TemplateFamily } from './templates';
-import { polyBasis, scanConstants, type ScanConstants, type ScanData } from './scan';
+import { PEAK_MARGIN_PIX, polyBasis, scanConstants, type ScanConstants, type ScanData } from './scan';
 
 /** Everything about one spectrum that the full-model evaluations share. */
 export interface RefineContext {
@@ -19,13 +19,15 @@ export interface RefineContext {
   consts: ScanConstants;
   /** Observed-frame modulation per pixel: mean forest depth 1 - F(lambda). */
   forestDepth: Float64Array;
+  /** Work buffer: continuum multiplier per pixel. */
+  cm: Float64Array;
 }
 
 export function makeRefineContext(data: ScanData, P: number, dlog10: number): RefineContext {
   const n = data.flux.length;
   const fd = new Float64Array(n);
   for (let i = 0; i < n; i++) fd[i] = forestDepth(Math.pow(10, (data.k0 + i) * dlog10));
-  return { data, dlog10, P, poly: polyBasis(n, P), consts: scanConstants(data, P), forestDepth: fd };
+  return { data, dlog10, P, poly: polyBasis(n, P), consts: scanConstants(data, P), forestDepth: fd, cm: new Float64Array(n) };
 }
 
 interface Column {
@@ -87,6 +89,31 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
     b[a] = consts.pf[a];
     for (let c = 0; c < P; c++) M[a * n + c] = consts.pp[a * P + c];
   }
+  // Quasars: continuum times the mean forest transmission blueward of Ly-alpha,
+  // zero below the Lyman limit (templates.ts, forestOnContinuum).
+  const cm = family.forestOnContinuum ? continuumMultiplier(ctx, s) : null;
+  if (cm) {
+    const n0 = data.flux.length;
+    let fwf = 0;
+    const pf = new Float64Array(P);
+    const pp = new Float64Array(P * P);
+    for (let i = 0; i < cm.last; i++) {
+      const wi = data.ivar[i];
+      if (!(wi > 0)) continue;
+      const d = cm.v[i] * cm.v[i] - 1;
+      const e = cm.v[i] - 1;
+      for (let a = 0; a < P; a++) {
+        pf[a] += wi * data.flux[i] * poly[a][i] * e;
+        for (let c = 0; c < P; c++) pp[a * P + c] += wi * poly[a][i] * poly[c][i] * d;
+      }
+    }
+    void n0;
+    void fwf;
+    for (let a = 0; a < P; a++) {
+      b[a] += pf[a];
+      for (let c = 0; c < P; c++) M[a * n + c] += pp[a * P + c];
+    }
+  }
   const cols: (Column | null)[] = [];
   for (let j = 0; j < K; j++) cols.push(column(ctx, family, j, s));
   const w = data.ivar;
@@ -102,7 +129,8 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
       const wv = w[i] * cj.v[q];
       if (wv === 0) continue;
       bf += wv * f[i];
-      for (let a = 0; a < P; a++) pa[a] += wv * poly[a][i];
+      if (cm && i < cm.last) for (let a = 0; a < P; a++) pa[a] += wv * poly[a][i] * cm.v[i];
+      else for (let a = 0; a < P; a++) pa[a] += wv * poly[a][i];
     }
     b[r] = bf;
     for (let a = 0; a < P; a++) {
@@ -121,6 +149,17 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
     }
   }
   const tiny = 1e-10 * Math.max(consts.sumW, 1e-300);
+  // An emission vector counts only when one of its line centres is inside the data.
+  for (let j = 0; j < K; j++) {
+    const peaks = family.vectors[j].pieces[0].rest.peaksA;
+    if (!peaks || !cols[j]) continue;
+    const nPix = data.flux.length;
+    const inside = peaks.some((pk) => {
+      const i = Math.log10(pk) / ctx.dlog10 + s - data.k0;
+      return i >= PEAK_MARGIN_PIX && i <= nPix - 1 - PEAK_MARGIN_PIX;
+    });
+    if (!inside) M[(P + j) * n + P + j] = 0;
+  }
   const x = new Float64Array(n);
   const work = makeNnlsWork(n);
   let explained: number;
@@ -139,11 +178,40 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
   return { shift: s, chi2: consts.fwf - explained, dof: Math.max(1, consts.nGood - nPar), x, active };
 }
 
+/** Rest Ly-alpha and the Lyman limit, Angstrom (catalogue). */
+const LYA_A = 1215.67;
+const LL_A = 911.75;
+
+/**
+ * Continuum multiplier at shift s: F(lambda) (mean forest transmission) where
+ * the rest wavelength is between the Lyman limit and Ly-alpha, 0 below the
+ * limit, 1 elsewhere. `last` is one past the last pixel where it differs from 1.
+ */
+function continuumMultiplier(ctx: RefineContext, s: number): { v: Float64Array; last: number } {
+  const { data, dlog10 } = ctx;
+  const n = data.flux.length;
+  const v = ctx.cm;
+  const kLya = Math.log10(LYA_A) / dlog10 + s;
+  const kLl = Math.log10(LL_A) / dlog10 + s;
+  let last = 0;
+  for (let i = 0; i < n; i++) {
+    const k = data.k0 + i;
+    if (k >= kLya) {
+      v[i] = 1;
+      continue;
+    }
+    v[i] = k < kLl ? 0 : 1 - ctx.forestDepth[i];
+    last = i + 1;
+  }
+  return { v, last };
+}
+
 /** Model flux per data pixel for a full fit (normalised units), for plots and checks. */
 export function modelFlux(ctx: RefineContext, family: TemplateFamily, fit: FullFit): Float64Array {
   const n = ctx.data.flux.length;
   const out = new Float64Array(n);
-  for (let a = 0; a < ctx.P; a++) for (let i = 0; i < n; i++) out[i] += fit.x[a] * ctx.poly[a][i];
+  const cm = family.forestOnContinuum ? continuumMultiplier(ctx, fit.shift) : null;
+  for (let a = 0; a < ctx.P; a++) for (let i = 0; i < n; i++) out[i] += fit.x[a] * ctx.poly[a][i] * (cm && i < cm.last ? cm.v[i] : 1);
   family.vectors.forEach((_, j) => {
     const amp = fit.x[ctx.P + j];
     if (!amp) return;

@@ -12,6 +12,12 @@ export interface RestArray {
   /** First and last absolute pixel with a non-zero value (lo > hi when all zero). */
   lo: number;
   hi: number;
+  /**
+   * Rest wavelengths (Angstrom) of the line centres an emission vector carries;
+   * such a vector is only used at shifts that put one of them inside the data
+   * (a line wing hanging off the end of a spectrum must not fit its edge).
+   */
+  peaksA?: number[];
 }
 
 /** Rest-frame span every template covers, Angstrom: far-UV to near-IR. */
@@ -59,7 +65,9 @@ export function combine(parts: { r: RestArray; weight: number }[]): RestArray {
     if (r.kStart !== base.kStart || r.values.length !== v.length) throw new Error('combine: arrays on different spans');
     for (let j = 0; j < v.length; j++) v[j] += weight * r.values[j];
   }
-  return withSupport(base.kStart, v);
+  const out = withSupport(base.kStart, v);
+  if (parts.every((p) => p.r.peaksA)) out.peaksA = parts.flatMap((p) => p.r.peaksA!);
+  return out;
 }
 
 /**
@@ -72,5 +80,7 @@ export function binRest(r: RestArray, factor: number): RestArray {
   const K1 = Math.floor((r.kStart + r.values.length - 1) / factor);
   const v = new Float64Array(K1 - K0 + 1);
   for (let j = 0; j < r.values.length; j++) v[Math.floor((r.kStart + j) / factor) - K0] += r.values[j] / factor;
-  return withSupport(K0, v);
+  const out = withSupport(K0, v);
+  if (r.peaksA) out.peaksA = r.peaksA;
+  return out;
 }

@@ -12,6 +12,7 @@
  */
 import { CorrelationPlan, nextPow2, type HalfSpectrum } from './fftCorrelate';
 import { makeNnlsWork, nnlsNormal } from './linalg';
+import { invertSmall, makeSubsetSolver, MAX_K } from './scanSolve';
 import { valueAt, type RestArray } from './restArray';
 
 /** Data for a scan: on the log grid, pixel i at absolute index k0 + i (any binning). */
@@ -305,7 +306,92 @@ export interface ScanResult {
 }
 
 /** Solve the normal equations at every shift (non-negative template amplitudes). */
-export function chi2FromSums(sums: ScanSums, c: ScanConstants): ScanResult {
+export function chi2FromSums(sums: ScanSums, c: ScanConstants, allowed?: (Uint8Array | null)[]): ScanResult {
+  const { K, P } = sums;
+  if (K <= MAX_K && P > 0) {
+    const H = invertSmall(c.pp, P);
+    if (H) return chi2Schur(sums, c, H, allowed);
+  }
+  return chi2General(sums, c, allowed);
+}
+
+/** Margin, in pixels, that keeps a line centre "inside" the data. */
+export const PEAK_MARGIN_PIX = 8;
+
+/**
+ * Per vector, per shift: 1 when one of the vector's line centres (peaksA)
+ * falls inside the data at that shift; null for vectors without peaks.
+ * The data's pixel size is dlog10.
+ */
+export function peakMasks(data: ScanData, vectors: RestArray[], sMin: number, nShift: number, dlog10: number): (Uint8Array | null)[] {
+  const n = data.flux.length;
+  return vectors.map((v) => {
+    if (!v.peaksA) return null;
+    const m = new Uint8Array(nShift);
+    for (const pk of v.peaksA) {
+      const kp = Math.log10(pk) / dlog10; // rest pixel (fractional)
+      // observed pixel index kp + s - k0 within [margin, n - 1 - margin]
+      const sLo = Math.ceil(data.k0 + PEAK_MARGIN_PIX - kp);
+      const sHi = Math.floor(data.k0 + n - 1 - PEAK_MARGIN_PIX - kp);
+      for (let s = Math.max(sLo, sMin); s <= Math.min(sHi, sMin + nShift - 1); s++) m[s - sMin] = 1;
+    }
+    return m;
+  });
+}
+
+/** Fast path: polynomial eliminated once (scanSolve.ts). */
+function chi2Schur(sums: ScanSums, c: ScanConstants, H: Float64Array, allowed?: (Uint8Array | null)[]): ScanResult {
+  const { K, P, nShift } = sums;
+  const solver = makeSubsetSolver(K);
+  const chi2 = new Float64Array(nShift);
+  const nActive = new Uint8Array(nShift);
+  // base = fwf - pf^T H pf; Hpf = H pf
+  const Hpf = new Float64Array(P);
+  let base = c.fwf;
+  for (let a = 0; a < P; a++) {
+    for (let b = 0; b < P; b++) Hpf[a] += H[a * P + b] * c.pf[b];
+    base -= c.pf[a] * Hpf[a];
+  }
+  const S = new Float64Array(K * K);
+  const r = new Float64Array(K);
+  const u = new Float64Array(K * P); // u_j = H C_j
+  const amp = new Float64Array(K);
+  const usable = new Uint8Array(K);
+  const tiny = 1e-10 * Math.max(c.sumW, 1e-300);
+  for (let si = 0; si < nShift; si++) {
+    for (let j = 0; j < K; j++) {
+      let rj = sums.tf[j][si];
+      for (let a = 0; a < P; a++) {
+        let v = 0;
+        for (let b = 0; b < P; b++) v += H[a * P + b] * sums.tp[j * P + b][si];
+        u[j * P + a] = v;
+        rj -= sums.tp[j * P + a][si] * Hpf[a];
+      }
+      r[j] = rj;
+    }
+    for (let j = 0; j < K; j++) {
+      for (let q = j; q < K; q++) {
+        const arr = sums.tt[j * K + q];
+        let v = arr ? arr[si] : 0;
+        for (let a = 0; a < P; a++) v -= sums.tp[j * P + a][si] * u[q * P + a];
+        S[j * K + q] = v;
+        S[q * K + j] = v;
+      }
+      const d = sums.tt[j * K + j];
+      const al = allowed?.[j];
+      usable[j] = d && d[si] > tiny && (!al || al[si]) ? 1 : 0;
+    }
+    const explained = solver.solve(S, r, usable, amp);
+    chi2[si] = base - explained;
+    let act = 0;
+    for (let j = 0; j < K; j++) if (amp[j] > 0) act++;
+    nActive[si] = act;
+  }
+  return { sMin: sums.sMin, chi2, nActive };
+}
+
+/** General path: full normal equations with Lawson-Hanson at every shift. */
+function chi2General(sums: ScanSums, c: ScanConstants, allowed?: (Uint8Array | null)[]): ScanResult {
   const { K, P, nShift } = sums;
   const n = P + K;
   const M = new Float64Array(n * n);
@@ -319,8 +405,10 @@ export function chi2FromSums(sums: ScanSums, c: ScanConstants): ScanResult {
     for (let q = 0; q < P; q++) M[a * n + q] = c.pp[a * P + q];
   }
   const tiny = 1e-10 * Math.max(c.sumW, 1e-300);
-  const usable = (j: number) => j < P || M[j * n + j] > tiny;
+  let siNow = 0;
+  const usable = (j: number) => j < P || (M[j * n + j] > tiny && (!allowed?.[j - P] || allowed[j - P]![siNow] === 1));
   for (let si = 0; si < nShift; si++) {
+    siNow = si;
     for (let j = 0; j < K; j++) {
       const r = P + j;
       b[r] = sums.tf[j][si];
@@ -345,12 +433,19 @@ export function chi2FromSums(sums: ScanSums, c: ScanConstants): ScanResult {
   return { sMin: sums.sMin, chi2, nActive };
 }
 
+/** The general solver for every shift (kept to test the fast path against). */
+export function chi2FromSumsGeneral(sums: ScanSums, c: ScanConstants, allowed?: (Uint8Array | null)[]): ScanResult {
+  return chi2General(sums, c, allowed);
+}
+
 /** Chi-square at every shift sMin..sMax by FFT correlations. */
-export function scanFFT(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, key: string, ds?: DataSpectra): ScanResult {
-  return chi2FromSums(scanSumsFFT(data, vectors, sMin, sMax, P, key, ds), scanConstants(data, P));
+export function scanFFT(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, key: string, ds?: DataSpectra, dlog10?: number): ScanResult {
+  const allowed = dlog10 ? peakMasks(data, vectors, sMin, sMax - sMin + 1, dlog10) : undefined;
+  return chi2FromSums(scanSumsFFT(data, vectors, sMin, sMax, P, key, ds), scanConstants(data, P), allowed);
 }
 
 /** Chi-square at every shift by direct sums (slow; for tests). */
-export function scanDirect(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number): ScanResult {
-  return chi2FromSums(scanSumsDirect(data, vectors, sMin, sMax, P), scanConstants(data, P));
+export function scanDirect(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, dlog10?: number): ScanResult {
+  const allowed = dlog10 ? peakMasks(data, vectors, sMin, sMax - sMin + 1, dlog10) : undefined;
+  return chi2FromSums(scanSumsDirect(data, vectors, sMin, sMax, P), scanConstants(data, P), allowed);
 }

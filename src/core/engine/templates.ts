@@ -59,6 +59,13 @@ export interface TemplateFamily {
   vectors: BasisVector[];
   /** Few rest-frame vectors for the fast FFT scan. */
   scanVectors: RestArray[];
+  /**
+   * When true (quasars), the continuum polynomial of the full model is
+   * multiplied by the mean Lyman-alpha forest transmission blueward of
+   * rest Ly-alpha and by 0 below the Lyman limit (refine.ts), so the forest
+   * depression is tied to the continuum instead of being a free shape.
+   */
+  forestOnContinuum?: boolean;
   features: FeatureLine[];
 }
 
@@ -98,13 +105,15 @@ function sigmaA(c: number, fwhmKms: number): number {
  */
 function emissionGroup(lines: LineSpec[], components: { fwhmKms: number; share: number }[]): RestArray {
   const centred = lines.map((l) => ({ ...l, c: restOf(l) * (1 + (l.offsetKms ?? 0) / C_KMS) }));
-  return normalisePeak(
+  const r = normalisePeak(
     sampleRest((lam) => {
       let f = 0;
       for (const l of centred) for (const comp of components) f += l.flux * comp.share * gauss(lam, l.c, sigmaA(l.c, comp.fwhmKms));
       return f;
     }),
   );
+  r.peaksA = centred.map((l) => l.c);
+  return r;
 }
 
 interface AbsSpec {
@@ -207,13 +216,6 @@ function quasarFamily(): TemplateFamily {
   const limitPart = sampleRest((lam) => (lam <= LYMAN_LIMIT_A ? -qsoContinuum(lam) : 0));
   const scale = 1 / qsoContinuum(LYMAN_LIMIT_A);
   const scaled = (r: RestArray) => withSupport(r.kStart, r.values.map((v) => v * scale));
-  const forestVec: BasisVector = {
-    id: 'forest',
-    pieces: [
-      { rest: scaled(forestPart), modulation: 'forestDepth' },
-      { rest: scaled(limitPart), modulation: 'none' },
-    ],
-  };
   // The scan uses a fixed 40% depth in the forest (mean transmission ~0.6 at
   // z ~ 3, Faucher-Giguere et al. 2008, reference sheet sec. 6).
   const forestScan = combine([
@@ -221,6 +223,20 @@ function quasarFamily(): TemplateFamily {
     { r: scaled(limitPart), weight: 1 },
   ]);
   const single = (id: string, r: RestArray): BasisVector => ({ id, pieces: [{ rest: r, modulation: 'none' }] });
+  // Flux below the Lyman limit when no optically thick absorber blocks it
+  // (the continuum model is zero there; this non-negative vector lets it back).
+  const leak = normalisePeak(sampleRest((lam) => (lam <= LYMAN_LIMIT_A ? qsoContinuum(lam) : 0)));
+  // Narrow lines of low-redshift quasars: [O III] 5008/4960 = 2.98 (Storey & Zeippen 2000,
+  // MNRAS 312, 813), weaker [O II] and [Ne V] (typical, from memory); 500 km/s FWHM.
+  const narrow = emissionGroup(
+    [
+      { id: 'OIII_5008', flux: 2.98 },
+      { id: 'OIII_4960', flux: 1 },
+      { id: 'OII', flux: 0.3 },
+      { id: 'NeV', flux: 0.2 },
+    ],
+    [{ fwhmKms: 500, share: 1 }],
+  );
   const uv = normalisePeak(combine([{ r: lya, weight: 1 }, { r: civ, weight: 0.35 }, { r: ciii, weight: 0.18 }]));
   const low = normalisePeak(combine([{ r: mgii, weight: 1 }, { r: balmer, weight: 1 }]));
   const broadFeat = (id: string): FeatureLine => ({ id, restA: restOf({ id, flux: 0 }), kind: 'emission', fwhmKms: 4000 });
@@ -229,8 +245,17 @@ function quasarFamily(): TemplateFamily {
     class: 'qso',
     zMin: 0,
     zMax: 6.5,
-    vectors: [single('LyA+NV', lya), single('CIV+SiIV', civ), single('CIII]', ciii), single('MgII', mgii), single('Balmer', balmer), forestVec],
+    vectors: [
+      single('LyA+NV', lya),
+      single('CIV+SiIV', civ),
+      single('CIII]', ciii),
+      single('MgII', mgii),
+      single('Balmer', balmer),
+      single('narrow', narrow),
+      single('Lyman leak', leak),
+    ],
     scanVectors: [uv, low, forestScan],
+    forestOnContinuum: true,
     features: ['LyA', 'SiIV', 'CIV', 'CIII', 'MgII', 'Hgam', 'Hbeta', 'Halpha'].map(broadFeat),
   };
 }

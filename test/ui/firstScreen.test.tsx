@@ -63,12 +63,12 @@ describe('first screen', () => {
     await screen.findByTestId('spectrum-list');
     // Folder paths are kept; files come in name order.
     expect(session.getSnapshot().rows.map((r) => r.file)).toEqual(['night1/bad.csv', 'night1/good.csv']);
-    const badRow = await screen.findByText('night1/bad.csv', { selector: '.c-id' }).then((el) => el.closest('[role=row]') as HTMLElement);
+    const badRow = await screen.findByText('bad.csv', { selector: '.c-id' }).then((el) => el.closest('[role=row]') as HTMLElement);
     expect(within(badRow).getByLabelText('read or fit error')).toBeTruthy();
     const err = badRow.querySelector('.row-error')!;
     expect(err.textContent).toMatch(/^night1\/bad\.csv/);
     expect(badRow.querySelector('script')).toBeNull();
-    expect(within(rowOf('night1/good.csv')).getByText('4000–5000 Å')).toBeTruthy();
+    expect(within(rowOf('good.csv')).getByText('4000–5000 Å')).toBeTruthy();
     db.close();
   });
 

@@ -50,7 +50,7 @@ const ListRow = memo(function ListRow({ row, index, current, onSelect }: { row: 
       <span role="gridcell" className="c-warn" aria-label={failed ? 'read or fit error' : undefined}>
         {failed ? '⚠' : ''}
       </span>
-      <span role="gridcell" className="c-id">
+      <span role="gridcell" className="c-id" title={row.file}>
         {displayName(row)}
       </span>
       <span role="gridcell" className="c-class">

@@ -32,9 +32,9 @@ export function isFailure(row: Row): boolean {
   return row.status === 'failed' || row.status === 'timeout';
 }
 
-/** The name the list shows: the header's object id, else the file name. */
+/** The name the list shows: the header's object id, else the file's base name. */
 export function displayName(row: Row): string {
-  return row.summary?.objectId || row.file;
+  return row.summary?.objectId || row.file.slice(row.file.lastIndexOf('/') + 1);
 }
 
 function matches(row: Row, filter: ListFilter): boolean {
@@ -86,12 +86,17 @@ export function viewRows(rows: readonly Row[], filter: ListFilter, sort: ListSor
   return out;
 }
 
-/** The next row after `fromKey` (wrapping) that is not yet reviewed and could be, or null. */
-export function nextUnreviewed(rows: readonly Row[], fromKey: string | null): Row | null {
+/**
+ * The next row after `fromKey` (wrapping) that is fitted and not yet
+ * reviewed, or null. Failures are skipped unless asked for (the 'only
+ * failures' view): they can only be rejected, and would stall the loop.
+ */
+export function nextUnreviewed(rows: readonly Row[], fromKey: string | null, includeFailures = false): Row | null {
   const start = fromKey ? rows.findIndex((r) => r.key === fromKey) : -1;
   for (let i = 1; i <= rows.length; i++) {
     const r = rows[(start + i + rows.length) % rows.length];
-    if (r && r.key !== fromKey && reviewState(r) === 'unreviewed' && r.status !== 'waiting' && r.status !== 'fitting') return r;
+    if (!r || r.key === fromKey || reviewState(r) !== 'unreviewed') continue;
+    if (r.status === 'ok' || (includeFailures && isFailure(r))) return r;
   }
   return null;
 }

@@ -33,7 +33,7 @@ export function CandidateList({ candidates, bestGrade, selected, onPick }: Candi
               </button>
             </td>
             <td>{fmtZ(c.z)}</td>
-            <td>{fmtZ(c.zErr)}</td>
+            <td>{fmtZ(c.zErr, 5)}</td>
             <td>
               {c.class}
               {c.atEdge ? ' (at range edge)' : ''}

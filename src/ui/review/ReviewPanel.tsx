@@ -425,7 +425,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
           </label>
           <div className="decision-buttons">
             <button type="button" className="primary" onClick={accept} disabled={!solution} data-testid="accept">
-              {shownIsAuto ? 'Accept' : 'Accept change'} <kbd>a</kbd>
+              {shownIsAuto || !solution ? 'Accept' : 'Accept change'} <kbd>a</kbd>
             </button>
             <button type="button" onClick={reject} data-testid="reject">
               Reject as unusable <kbd>x</kbd>

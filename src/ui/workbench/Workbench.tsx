@@ -53,36 +53,47 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
   const currentRow = useMemo(() => (currentKey ? snap.rows.find((r) => r.key === currentKey) ?? null : null), [snap.rows, currentKey]);
 
   // Open something at the start and whenever the current row leaves the view.
+  // A row opened automatically while the batch is still fitting gives way to
+  // the first fitted one; a row the reviewer chose stays.
+  const autoPicked = useRef(false);
   useEffect(() => {
-    if (currentKey && current) return;
-    const first = nextUnreviewed(rows, null) ?? rows[0] ?? null;
-    if (first) setCurrentKey(first.key);
-  }, [rows, currentKey, current]);
+    if (currentKey && current && !(autoPicked.current && current.status !== 'ok' && filter !== 'failures')) return;
+    const first = nextUnreviewed(rows, null, filter === 'failures') ?? (currentKey && current ? null : rows[0]) ?? null;
+    if (first && first.key !== currentKey) {
+      autoPicked.current = true;
+      setCurrentKey(first.key);
+    }
+  }, [rows, currentKey, current, filter]);
+
+  const choose = useCallback((key: string) => {
+    autoPicked.current = false;
+    setCurrentKey(key);
+  }, []);
 
   const move = useCallback(
     (step: number) => {
       if (!rows.length) return;
       const i = rows.findIndex((r) => r.key === currentKey);
       const j = Math.max(0, Math.min(rows.length - 1, (i < 0 ? 0 : i) + step));
-      setCurrentKey(rows[j].key);
+      choose(rows[j].key);
     },
-    [rows, currentKey],
+    [rows, currentKey, choose],
   );
 
   const goNextUnreviewed = useCallback(() => {
-    const n = nextUnreviewed(rows, currentKey);
+    const n = nextUnreviewed(rows, currentKey, filter === 'failures');
     if (n) {
-      setCurrentKey(n.key);
+      choose(n.key);
       setAllDone(false);
     } else setAllDone(true);
-  }, [rows, currentKey]);
+  }, [rows, currentKey, filter, choose]);
 
   const store = useCallback(
     async (draft: DecisionDraft, reviewer: string) => {
       if (!currentKey) return;
       const key = currentKey;
       // Choose the next spectrum before the list changes under the filter.
-      const next = nextUnreviewed(rows, key);
+      const next = nextUnreviewed(rows, key, filter === 'failures');
       const decision: ReviewDecision = { ...draft, reviewer, decidedAt: new Date().toISOString() };
       try {
         await session.decide(key, decision);
@@ -90,11 +101,11 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
         /* the banner reports it; the decision is kept in memory */
       }
       if (next) {
-        setCurrentKey(next.key);
+        choose(next.key);
         setAllDone(false);
       } else setAllDone(true);
     },
-    [currentKey, rows, session],
+    [currentKey, rows, session, filter, choose],
   );
 
   const onDecision = useCallback(
@@ -207,7 +218,7 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
         </p>
       )}
       <div className="workbench-body">
-        <SpectrumList rows={rows} currentKey={currentKey} onSelect={(k) => setCurrentKey(k)} />
+        <SpectrumList rows={rows} currentKey={currentKey} onSelect={choose} />
         {currentRow ? (
           <ReviewPanel
             key={currentRow.key}

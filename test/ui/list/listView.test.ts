@@ -34,8 +34,9 @@ describe('viewRows', () => {
 });
 
 describe('nextUnreviewed', () => {
-  it('skips reviewed rows and wraps around', () => {
-    expect(nextUnreviewed(rows, 'k0')?.key).toBe('k2');
+  it('skips reviewed rows and failures, and wraps around', () => {
+    expect(nextUnreviewed(rows, 'k0')?.key).toBe('k3');
+    expect(nextUnreviewed(rows, 'k0', true)?.key).toBe('k2');
     expect(nextUnreviewed(rows, 'k3')?.key).toBe('k0');
     expect(nextUnreviewed([rows[1]], 'k1')).toBeNull();
   });

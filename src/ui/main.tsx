@@ -30,7 +30,6 @@ async function start(): Promise<void> {
   // A separate worker for the review loop, so a running batch never delays it.
   const review = createFitWorker().api as unknown as ReviewApi;
   const session = new Session(db, pool);
-  window.addEventListener('pagehide', () => pool.dispose());
   root.render(<App services={{ session, review }} autoDemo={wantsDemo(location.search)} />);
 }
 

@@ -119,8 +119,13 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
       if (e.defaultPrevented) return;
-      if (panel || pending) return; // an open panel has the keyboard (Escape closes it)
       const action = actionForKey(e);
+      if (panel === 'help' && action === 'help') {
+        setPanel(null);
+        e.preventDefault();
+        return;
+      }
+      if (panel || pending) return; // an open panel has the keyboard (Escape closes it)
       if (!action) return;
       if (isTextTarget(e.target)) {
         if (action === 'escape') (e.target as HTMLElement).blur();

@@ -28,6 +28,7 @@ export const SNR_CAP = 50;
 export const HIGH_MIN = 0.95;
 export const MEDIUM_MIN = 0.75;
 export const LOW_MIN = 0.4;
+export const HIGH_MIN_FEATURES = 2;
 
 export interface ConfidenceInput {
   cls: SpectrumClass;
@@ -37,18 +38,33 @@ export interface ConfidenceInput {
   atEdge: boolean;
 }
 
-export function confidenceScore(inp: ConfidenceInput): number {
-  if (inp.cls === 'unknown') return 0;
+/** The regression inputs: [ln(1 + gap), min(nFeatures, 4), ln(1 + snrSum)]. */
+export function confidenceFeatures(inp: ConfidenceInput): number[] {
   const gap = Math.min(GAP_CAP, Math.max(0, Number.isFinite(inp.chi2Gap) ? inp.chi2Gap : GAP_CAP));
   let snrSum = 0;
   for (const s of inp.featureSnrs) snrSum += Math.min(SNR_CAP, s);
-  const t = B0 + B_GAP * Math.log1p(gap) + B_FEAT * Math.min(inp.nFeatures, 4) + B_SNR * Math.log1p(snrSum);
-  const score = 1 / (1 + Math.exp(-t));
+  return [Math.log1p(gap), Math.min(inp.nFeatures, 4), Math.log1p(snrSum)];
+}
+
+/** Logistic score of the regression inputs. */
+export function scoreFromFeatures(x: number[]): number {
+  const t = B0 + B_GAP * x[0] + B_FEAT * x[1] + B_SNR * x[2];
+  return 1 / (1 + Math.exp(-t));
+}
+
+export function confidenceScore(inp: ConfidenceInput): number {
+  if (inp.cls === 'unknown') return 0;
+  const score = scoreFromFeatures(confidenceFeatures(inp));
   return inp.atEdge ? score / 2 : score;
 }
 
-export function gradeOf(score: number): Grade {
-  if (score >= HIGH_MIN) return 'high';
+/**
+ * Grade of a score. 'high' also needs at least HIGH_MIN_FEATURES independent
+ * features when the regression inputs are given (a single line, however
+ * strong, can be misidentified).
+ */
+export function gradeOf(score: number, x?: number[]): Grade {
+  if (score >= HIGH_MIN && (!x || x[1] >= HIGH_MIN_FEATURES)) return 'high';
   if (score >= MEDIUM_MIN) return 'medium';
   if (score >= LOW_MIN) return 'low';
   return 'none';

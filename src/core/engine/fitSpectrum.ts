@@ -13,7 +13,7 @@
 import type { Candidate, ChiSquareCurve, FitResult, LineMeasurement, Spectrum, SpectrumClass } from '../types';
 import { candidateToContract } from './contract';
 import { localMinima, mergeDistinct, orderCandidates, refineMinimum, distinctKms, type RefinedCandidate } from './candidates';
-import { confidenceScore, gradeOf } from './confidence';
+import { confidenceFeatures, confidenceScore, gradeOf } from './confidence';
 import { countFeatures, lineSignificances } from './features';
 import { DLOG10, pixelsOfVelocity, shiftOfZ, velocitySeparationKms, zOfShift } from './logGrid';
 import { measureLines } from './measureLines';
@@ -299,7 +299,9 @@ function assemble(spectrum: Spectrum, p: Prepared, ordered: RefinedCandidate[], 
   const dPoly = polyOnlyChi2(p.ctx.consts, p.ctx.P) - best.chi2;
   let cls: SpectrumClass = best.family.class;
   if (dPoly < UNKNOWN_DCHI2 || (feats.n === 0 && chi2Gap < 1)) cls = 'unknown';
-  const score = confidenceScore({ cls, chi2Gap, nFeatures: feats.n, featureSnrs: feats.snrs, atEdge: best.atEdge });
+  const confIn = { cls, chi2Gap, nFeatures: feats.n, featureSnrs: feats.snrs, atEdge: best.atEdge };
+  const score = confidenceScore(confIn);
+  lastFeatureSnrs = feats.snrs;
   const candidates: Candidate[] = ordered.map((c) => candidateToContract(c, best.chi2));
   let lines: LineMeasurement[] = [];
   if (options.measureLines !== false && cls !== 'unknown') {
@@ -317,7 +319,7 @@ function assemble(spectrum: Spectrum, p: Prepared, ordered: RefinedCandidate[], 
     zErr: best.zErr,
     class: cls,
     score,
-    confidence: gradeOf(score),
+    confidence: gradeOf(score, confidenceFeatures(confIn)),
     chi2Gap,
     nFeatures: feats.n,
     curves: curvesOf(p.scans),
@@ -327,6 +329,16 @@ function assemble(spectrum: Spectrum, p: Prepared, ordered: RefinedCandidate[], 
     engineVersion: ENGINE_VERSION,
     input: p.input,
   };
+}
+
+/** S/N of the features counted by the most recent fit (for calibration scripts). */
+let lastFeatureSnrs: number[] = [];
+
+/** fitSpectrum plus the feature S/Ns behind its confidence (calibration, diagnostics). */
+export function fitSpectrumDetailed(spectrum: Spectrum, options: FitOptions = {}): { result: FitResult; featureSnrs: number[] } {
+  lastFeatureSnrs = [];
+  const result = fitSpectrum(spectrum, options);
+  return { result, featureSnrs: lastFeatureSnrs };
 }
 
 function guarded(spectrum: Spectrum, run: () => FitResult): FitResult {

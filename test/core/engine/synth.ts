@@ -7,7 +7,7 @@ import type { Spectrum } from '../../../src/core/types';
 import { DLOG10 } from '../../../src/core/engine/logGrid';
 import type { TemplateFamily } from '../../../src/core/engine/templates';
 import { valueAt } from '../../../src/core/engine/restArray';
-import { forestDepth } from '../../../src/core/engine/forest';
+import { forestDepth, forestTransmission } from '../../../src/core/engine/forest';
 
 /** mulberry32 (a small public-domain PRNG, common practice) with Gaussian draws by Box-Muller. */
 export function makeRng(seed: number) {
@@ -33,7 +33,7 @@ export function injectFamily(
   family: TemplateFamily,
   amps: number[],
   z: number,
-  opts: { kStart?: number; n?: number; sigma: number; seed: number; cont?: (lamA: number) => number },
+  opts: { kStart?: number; n?: number; sigma: number; seed: number; cont?: (lamA: number) => number; forest?: boolean },
 ): Spectrum {
   const kStart = opts.kStart ?? Math.round(Math.log10(3600) / DLOG10);
   const n = opts.n ?? 4600;
@@ -46,6 +46,12 @@ export function injectFamily(
     const k = kStart + i;
     wl[i] = Math.pow(10, k * DLOG10);
     let f = opts.cont ? opts.cont(wl[i]) : 1;
+    if (opts.forest) {
+      // mean forest on the continuum blueward of Ly-alpha, black below the Lyman limit
+      const rest = wl[i] / (1 + z);
+      if (rest < 911.75) f = 0;
+      else if (rest < 1215.67) f *= forestTransmission(wl[i]);
+    }
     const kr = k - shift;
     const k0 = Math.floor(kr);
     const t = kr - k0;

@@ -57,6 +57,8 @@ export function readTextSpectrum(bytes: Uint8Array, file: string): Spectrum {
   }
   let text = strFromU8(bytes);
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1); // UTF-8 byte-order mark
+  // Old Mac line ends: CR alone, no LF anywhere in the file.
+  if (text.indexOf('\n') < 0 && text.indexOf('\r') >= 0) text = text.replace(/\r/g, '\n');
 
   // Pass 1: classify lines, count data rows, collect comments.
   const comments: CommentLine[] = [];
@@ -188,7 +190,10 @@ function firstNonBlank(line: string): number {
 function field(fields: string[], col: number, plan: ColumnPlan, lineNo: number, file: string): number {
   const v = parseField(fields[col]);
   if (v === undefined) {
-    throw new SpectrumReadError(file, `'${clip(fields[col])}' is not a number`, { line: lineNo, column: plan.names[col] });
+    // '4000,5' (split on ';' or spaces) or '5\t1' (split on ','): numbers written with a decimal comma.
+    const comma = /^[+-]?\d+,\d+$/.test(fields[col]) || /\d[\t;]\s*\d/.test(fields[col]);
+    const hint = comma ? ' (a decimal comma? numbers must use a decimal point)' : '';
+    throw new SpectrumReadError(file, `'${clip(fields[col])}' is not a number${hint}`, { line: lineNo, column: plan.names[col] });
   }
   return v;
 }

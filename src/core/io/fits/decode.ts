@@ -30,7 +30,8 @@ export function decodeValues(
   const { scale, zero } = scaling;
   const blank = scaling.blank;
   const blankNum = blank === undefined ? undefined : Number(blank);
-  const blankBig = blank === undefined ? undefined : BigInt(blank);
+  // A BLANK/TNULL that is not an integer (1.5, 1E400) can equal no stored integer: ignore it.
+  const blankBig = typeof blank === 'bigint' ? blank : blankNum !== undefined && Number.isInteger(blankNum) ? BigInt(blankNum) : undefined;
   let p = offset;
   switch (bitpix) {
     case -32:

@@ -65,7 +65,8 @@ function readHdu(bytes: Uint8Array, offset: number, index: number, file: string)
   if (pcount < 0) throw new SpectrumReadError(file, `PCOUNT = ${pcount} is negative`, { hdu: index, keyword: 'PCOUNT' });
   if (gcount < 0) throw new SpectrumReadError(file, `GCOUNT = ${gcount} is negative`, { hdu: index, keyword: 'GCOUNT' });
   // Float arithmetic cannot overflow into a small number here; absurd sizes stay absurd.
-  const nValues = naxis === 0 ? 0 : axes.reduce((a, b) => a * b, 1);
+  // A zero axis makes the product 0 even when the others overflow to Infinity (0 * Infinity would be NaN).
+  const nValues = naxis === 0 || axes.includes(0) ? 0 : axes.reduce((a, b) => a * b, 1);
   const dataBytes = (Math.abs(bitpix) / 8) * gcount * (pcount + nValues);
   const available = bytes.length - dataOffset;
   if (dataBytes > available) {
@@ -89,7 +90,13 @@ function readHdu(bytes: Uint8Array, offset: number, index: number, file: string)
   else {
     const x = header.str('XTENSION')?.toUpperCase();
     kind = x === 'IMAGE' ? 'image' : x === 'BINTABLE' || x === 'A3DTABLE' ? 'bintable' : x === 'TABLE' ? 'ascii-table' : 'other';
-    if (kind === 'image' && dataBytes === 0) kind = 'empty';
+    if (kind === 'image' && nValues === 0) kind = 'empty';
+  }
+  // An image's pixels must lie inside its declared data: PCOUNT/GCOUNT other than 0/1
+  // (meaningless for images) must not let the readers run past the bytes checked above.
+  const imageBytes = (Math.abs(bitpix) / 8) * nValues;
+  if (kind === 'image' && imageBytes > dataBytes) {
+    throw new SpectrumReadError(file, `image of ${nValues} values needs ${imageBytes} bytes but PCOUNT/GCOUNT declare ${dataBytes}`, { hdu: index, keyword: 'GCOUNT' });
   }
   return { index, kind, header, dataOffset, dataBytes, bitpix, axes, extname: header.str('EXTNAME') ?? '' };
 }

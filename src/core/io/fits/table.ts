@@ -120,8 +120,15 @@ export function readTable(bytes: Uint8Array, file: string, hdus: readonly FitsHd
   const cols = tableColumns(hdu, file);
   const found = findSpectrumColumns(cols);
   if ('missing' in found) {
-    throw new SpectrumReadError(file, `no ${found.missing} column (columns: ${cols.map((c) => c.name).join(', ') || 'none'})`, { hdu: hdu.index });
+    // A column with the right name but a format we do not read (P/Q descriptors, strings, 0 elements) deserves a word.
+    const roles: (Role | null)[] = found.missing === 'flux' ? ['flux'] : ['wave', 'loglam', 'wave-air'];
+    const unread = cols.find((c) => roles.includes(c.role) && !isNumeric(c));
+    const why = unread
+      ? `; '${unread.name}' has TFORM${unread.number} = '${h.str(`TFORM${unread.number}`)}', a format not read here: only numeric B, I, J, K, E or D columns with at least one element are`
+      : '';
+    throw new SpectrumReadError(file, `no ${found.missing} column (columns: ${cols.map((c) => c.name).join(', ') || 'none'}${why})`, { hdu: hdu.index });
   }
+  if (hdu.axes[1] === 0) throw new SpectrumReadError(file, 'the table has no rows (NAXIS2 = 0)', { hdu: hdu.index, keyword: 'NAXIS2' });
   const { wave, flux, noise, mask } = found;
   const nRows = hdu.axes[1];
   const colWhere = (c: TableColumn) => ({ hdu: hdu.index, keyword: `TFORM${c.number}`, column: c.name });

@@ -99,8 +99,7 @@ function roleOf(tokens: readonly string[]): ColumnRole | null {
 /** Read one header name. Conflicting unit or medium words make the role null (unrecognised). */
 export function parseColumnName(written: string): ColumnName {
   const raw = stripQuotes(written.trim());
-  const bracket = /[[(]([^\])]*)[\])]\s*$/.exec(raw);
-  const bracketUnit = bracket ? bracket[1].trim() : undefined;
+  const bracketUnit = trailingBracket(raw);
   const tokens = nameTokens(raw);
   const role = roleOf(tokens);
   const col: ColumnName = { raw, role };
@@ -112,6 +111,24 @@ export function parseColumnName(written: string): ColumnName {
   }
   if (role === 'mask' && (tokens.includes('and') || tokens.includes('andmask'))) col.andMask = true;
   return col;
+}
+
+/**
+ * Text inside a trailing '[...]' or '(...)' (what /[[(]([^\])]*)[\])]\s*$/ captures),
+ * found in linear time: the regular expression backtracks quadratically on a
+ * name of many opening brackets (seconds for a 65,000-character header field).
+ */
+export function trailingBracket(name: string): string | undefined {
+  const t = name.trimEnd();
+  const close = t.length - 1;
+  if (close < 0 || (t[close] !== ']' && t[close] !== ')')) return undefined;
+  let open = -1;
+  for (let i = close - 1; i >= 0; i--) {
+    const c = t[i];
+    if (c === ']' || c === ')') break;
+    if (c === '[' || c === '(') open = i; // keep the leftmost opening bracket after the last closing one
+  }
+  return open < 0 ? undefined : t.slice(open + 1, close).trim();
 }
 
 /** Remove one pair of surrounding double or single quotes. */

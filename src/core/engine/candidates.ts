@@ -90,8 +90,12 @@ export function refineMinimum(ctx: RefineContext, family: TemplateFamily, start:
   if (s > lo && s < hi) {
     for (const h of [1, 2, 4]) {
       if (s - h < lo || s + h > hi) break;
-      const cm = evaluateFull(ctx, family, s - h, best.active).chi2;
-      const cp = evaluateFull(ctx, family, s + h, best.active).chi2;
+      // Neighbours already solved with the same template set need no new solve.
+      const same = (f: FullFit | undefined) => f !== undefined && f.active.every((a, j) => a === best.active[j]);
+      const fm = cache.get(s - h);
+      const fp = cache.get(s + h);
+      const cm = same(fm) ? fm!.chi2 : evaluateFull(ctx, family, s - h, best.active).chi2;
+      const cp = same(fp) ? fp!.chi2 : evaluateFull(ctx, family, s + h, best.active).chi2;
       const v = parabolaVertex(s, h, cm, best.chi2, cp);
       if (v.d2 > 0) {
         u0 = Math.min(s + h, Math.max(s - h, v.x0));

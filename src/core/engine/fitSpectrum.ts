@@ -39,7 +39,7 @@ export interface FitOptions {
  * Fine pixels combined into one for the scan: 2 (138 km/s) for narrow-line and
  * stellar families; 4 (276 km/s) for quasars, whose lines are >= 2000 km/s wide.
  */
-export const SCAN_BINNING = 2;
+export const SCAN_BINNING = 3;
 export const QSO_SCAN_BINNING = 4;
 
 export function scanBinningOf(f: TemplateFamily): number {
@@ -47,7 +47,7 @@ export function scanBinningOf(f: TemplateFamily): number {
 }
 
 /** Scan minima refined in all, and at most per family. */
-export const REFINE_TOTAL = 7;
+export const REFINE_TOTAL = 5;
 export const REFINE_PER_FAMILY = 3;
 /** Fewest usable log-grid pixels a fit accepts. */
 export const MIN_GOOD_PIXELS = 50;
@@ -97,7 +97,7 @@ function binnedScanVectors(f: TemplateFamily): RestArray[] {
 
 function median(a: number[]): number {
   if (a.length === 0) return NaN;
-  const s = a.slice().sort((x, y) => x - y);
+  const s = Float64Array.from(a).sort();
   const m = s.length >> 1;
   return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
 }
@@ -139,6 +139,15 @@ function prepare(spectrum: Spectrum, options: FitOptions): Prepared | string {
     }
     return d;
   };
+  const constCache = new Map<number, ScanConstants>();
+  const constsAt = (b: number): ScanConstants => {
+    let c = constCache.get(b);
+    if (!c) {
+      c = scanConstants(dataAt(b), P);
+      constCache.set(b, c);
+    }
+    return c;
+  };
   const wanted = options.families ? new Set(options.families) : null;
   const dsCache = new Map<string, DataSpectra>();
   const scans: FamilyScan[] = [];
@@ -158,8 +167,8 @@ function prepare(spectrum: Spectrum, options: FitOptions): Prepared | string {
       ds = dataSpectra(data, P, L);
       dsCache.set(`${b}|${L}`, ds);
     }
-    const r = scanFFT(data, binnedScanVectors(family), sLo, sHi, P, `${family.id}@${b}`, ds, DLOG10 * b);
-    scans.push({ family, lo, hi, binning: b, sMin: sLo, chi2: r.chi2, chi2Poly: polyOnlyChi2(scanConstants(data, P), P) });
+    const r = scanFFT(data, binnedScanVectors(family), sLo, sHi, P, `${family.id}@${b}`, ds, DLOG10 * b, constsAt(b));
+    scans.push({ family, lo, hi, binning: b, sMin: sLo, chi2: r.chi2, chi2Poly: polyOnlyChi2(constsAt(b), P) });
   }
   if (scans.length === 0) return 'no template family covers the requested redshift range';
   const ctx = makeRefineContext(fine, P, DLOG10);

@@ -21,13 +21,26 @@ export interface RefineContext {
   forestDepth: Float64Array;
   /** Work buffer: continuum multiplier per pixel. */
   cm: Float64Array;
+  /** w_i f_i and w_i p_a(i) per pixel (0 where w = 0), precomputed for the inner loops. */
+  wf: Float64Array;
+  wp: Float64Array[];
 }
 
 export function makeRefineContext(data: ScanData, P: number, dlog10: number): RefineContext {
   const n = data.flux.length;
   const fd = new Float64Array(n);
-  for (let i = 0; i < n; i++) fd[i] = forestDepth(Math.pow(10, (data.k0 + i) * dlog10));
-  return { data, dlog10, P, poly: polyBasis(n, P), consts: scanConstants(data, P), forestDepth: fd, cm: new Float64Array(n) };
+  // Only wavelengths where the forest can matter (up to Ly-alpha at the largest quasar z of any family, 7.5x).
+  const kMax = Math.log10(LYA_A * 8) / dlog10;
+  for (let i = 0; i < n && data.k0 + i <= kMax; i++) fd[i] = forestDepth(Math.pow(10, (data.k0 + i) * dlog10));
+  const poly = polyBasis(n, P);
+  const wf = new Float64Array(n);
+  const wp = poly.map(() => new Float64Array(n));
+  for (let i = 0; i < n; i++) {
+    const w = data.ivar[i] > 0 ? data.ivar[i] : 0;
+    wf[i] = w * data.flux[i];
+    for (let a = 0; a < P; a++) wp[a][i] = w * poly[a][i];
+  }
+  return { data, dlog10, P, poly, consts: scanConstants(data, P), forestDepth: fd, cm: new Float64Array(n), wf, wp };
 }
 
 interface Column {
@@ -117,20 +130,24 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
   const cols: (Column | null)[] = [];
   for (let j = 0; j < K; j++) cols.push(column(ctx, family, j, s));
   const w = data.ivar;
-  const f = data.flux;
+  const { wf, wp } = ctx;
+  const pa = new Float64Array(P);
   for (let j = 0; j < K; j++) {
     const cj = cols[j];
     if (!cj) continue;
     const r = P + j;
     let bf = 0;
-    const pa = new Float64Array(P);
-    for (let q = 0; q < cj.v.length; q++) {
-      const i = cj.i0 + q;
-      const wv = w[i] * cj.v[q];
-      if (wv === 0) continue;
-      bf += wv * f[i];
-      if (cm && i < cm.last) for (let a = 0; a < P; a++) pa[a] += wv * poly[a][i] * cm.v[i];
-      else for (let a = 0; a < P; a++) pa[a] += wv * poly[a][i];
+    pa.fill(0);
+    const v = cj.v;
+    const i0 = cj.i0;
+    const lastCm = cm ? cm.last : 0;
+    for (let q = 0; q < v.length; q++) {
+      const t = v[q];
+      if (t === 0) continue;
+      const i = i0 + q;
+      bf += t * wf[i];
+      const tc = i < lastCm ? t * cm!.v[i] : t;
+      for (let a = 0; a < P; a++) pa[a] += tc * wp[a][i];
     }
     b[r] = bf;
     for (let a = 0; a < P; a++) {
@@ -143,7 +160,9 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
       const from = Math.max(cj.i0, ck.i0);
       const to = Math.min(cj.i0 + cj.v.length, ck.i0 + ck.v.length);
       let sum = 0;
-      for (let i = from; i < to; i++) sum += w[i] * cj.v[i - cj.i0] * ck.v[i - ck.i0];
+      const vk = ck.v;
+      const ok = ck.i0;
+      for (let i = from; i < to; i++) sum += w[i] * v[i - i0] * vk[i - ok];
       M[r * n + P + k] = sum;
       M[(P + k) * n + r] = sum;
     }

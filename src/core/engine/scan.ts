@@ -439,9 +439,19 @@ export function chi2FromSumsGeneral(sums: ScanSums, c: ScanConstants, allowed?: 
 }
 
 /** Chi-square at every shift sMin..sMax by FFT correlations. */
-export function scanFFT(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, key: string, ds?: DataSpectra, dlog10?: number): ScanResult {
+export function scanFFT(
+  data: ScanData,
+  vectors: RestArray[],
+  sMin: number,
+  sMax: number,
+  P: number,
+  key: string,
+  ds?: DataSpectra,
+  dlog10?: number,
+  consts?: ScanConstants,
+): ScanResult {
   const allowed = dlog10 ? peakMasks(data, vectors, sMin, sMax - sMin + 1, dlog10) : undefined;
-  return chi2FromSums(scanSumsFFT(data, vectors, sMin, sMax, P, key, ds), scanConstants(data, P), allowed);
+  return chi2FromSums(scanSumsFFT(data, vectors, sMin, sMax, P, key, ds), consts ?? scanConstants(data, P), allowed);
 }
 
 /** Chi-square at every shift by direct sums (slow; for tests). */

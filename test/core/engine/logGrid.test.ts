@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { DLOG10, KMS_PER_PIXEL, dzPerPixel, shiftOfZ, velocitySeparationKms, zOfShift, pixelsOfVelocity } from '../../../src/core/engine/logGrid';
+import { C_KMS, DLOG10, KMS_PER_PIXEL, dzPerPixel, shiftOfZ, velocitySeparationKms, zOfShift, pixelsOfVelocity } from '../../../src/core/engine/logGrid';
 
 describe('logGrid', () => {
   it('KMS_PER_PIXEL is c ln(10) dlog = 69.0298 km/s for dlog = 1e-4', () => {
@@ -25,6 +25,8 @@ describe('logGrid', () => {
   it('velocity helpers agree with one pixel = 69.03 km/s', () => {
     // one pixel: c ln(1+z) with ln(1+z) = ln(10) dlog (reference sheet sec. 3)
     expect(velocitySeparationKms(0, zOfShift(1))).toBeCloseTo(69.0298, 3);
-    expect(pixelsOfVelocity(KMS_PER_PIXEL * 10)).toBeGreaterThan(9.99);
+    // pixelsOfVelocity(v) = ln(1 + v/c) / (ln(10) dlog): the v whose 1 + v/c = 10^(10 dlog) spans exactly 10 pixels
+    expect(pixelsOfVelocity(C_KMS * (Math.pow(10, 10 * DLOG10) - 1))).toBeCloseTo(10, 9);
+    expect(pixelsOfVelocity(KMS_PER_PIXEL * 10)).toBeCloseTo(10, 1);
   });
 });

@@ -17,9 +17,9 @@
  * (src/core/sim; scripts/calibrate-confidence.ts, which also fits them by
  * logistic regression; the refit gives collinear feature/S/N weights, so the
  * simpler hand-set rule was kept). Checks, "wrong" meaning |dz|/(1+z) > 0.01:
- *   simulation seed 7, 600 spectra:  high 406, 0 wrong; medium 3.3% wrong; low 24%.
+ *   simulation seed 7, 600 spectra:  high 406, 0 wrong; medium 3.3% wrong; low 21%.
  *   simulation seed 11, 1000 spectra: high 662, 0 wrong (< 0.5% at ~95% confidence
- *     needs ~600 with none wrong); medium 6.7%; low 12%; none 54%.
+ *     needs ~600 with none wrong); medium 7.0%; low 11%; none 53%.
  *   58 real survey spectra (exploratory, outside the tests): high 46, 3 wrong
  *     (stars of one survey fitted as passive galaxies): the stellar templates
  *     are the weak point, so treat 'high' on stars with care.

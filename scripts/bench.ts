@@ -13,7 +13,9 @@ benchRead({ minSeconds: 1 });
 console.log('\n== headless fitter ==');
 benchCli({ n: 1000, big });
 try {
-  const { benchBrowser } = await import('./bench-browser');
+  // Computed specifier: the browser bench is optional (needs Chromium and a build).
+  const mod = './bench-browser.ts';
+  const { benchBrowser } = (await import(mod)) as { benchBrowser: () => Promise<void> };
   console.log('\n== browser ==');
   await benchBrowser();
 } catch (e) {

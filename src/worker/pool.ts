@@ -6,7 +6,7 @@
  * is tested with fakes and no real Worker.
  */
 import type { FitResult } from '../core/types';
-import { failedResult } from '../core/pipeline';
+import { failedResult } from '../core/failedResult';
 
 /** The part of a fit worker the pool uses. */
 export interface PoolWorker {

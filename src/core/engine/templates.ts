@@ -13,8 +13,8 @@ import { lineById, LYMAN_LIMIT_A } from '../lines/catalogue';
 import { C_KMS, pixelsOfVelocity } from './logGrid';
 import { combine, normalisePeak, sampleRest, withSupport, type RestArray } from './restArray';
 
-/** Identifies this template set in every result and export. */
-export const TEMPLATE_SET_ID = 'shiftmark-templates-1';
+// The template set id lives in version.ts (light to import); bump it there when templates change.
+export { TEMPLATE_SET_ID } from './version';
 
 /** FWHM = 2 sqrt(2 ln 2) sigma for a Gaussian. */
 const FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);

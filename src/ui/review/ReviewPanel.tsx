@@ -49,6 +49,18 @@ type SpectrumState = { kind: 'loading' } | { kind: 'ready'; spectrum: Spectrum }
 
 /** Catalogue lines and night-sky regions as the plot takes them (built once). */
 const MARKERS: LineMarker[] = LINES.map((l) => ({ id: l.id, label: l.label, restA: l.restA, kind: l.kind, strength: l.strength }));
+const BALMER = new Set(['Hbeta', 'Hgam', 'Hdel', 'Heps', 'Halpha']);
+/**
+ * Markers for the class of the shown solution, so the plot shows the lines that
+ * class would have: quasars broad and narrow emission; galaxies narrow emission
+ * and stellar absorption; stars absorption, with the Balmer lines as troughs.
+ */
+const MARKERS_BY_CLASS: Record<string, LineMarker[]> = {
+  qso: MARKERS.filter((m) => LINES.find((l) => l.id === m.id)!.roles.some((r) => r === 'qso-broad' || r === 'narrow')),
+  galaxy: MARKERS.filter((m) => LINES.find((l) => l.id === m.id)!.roles.some((r) => r === 'narrow' || r === 'absorption')),
+  star: MARKERS.filter((m) => m.kind === 'absorption' || BALMER.has(m.id)).map((m) => ({ ...m, kind: 'absorption' as const })),
+  unknown: MARKERS,
+};
 const SKY: SkyRegion[] = SKY_REGIONS_A.map((r) => ({ label: r.label, fromA: r.fromA, toA: r.toA }));
 
 const GRADES: (Grade | '')[] = ['', 'high', 'medium', 'low', 'none'];
@@ -311,7 +323,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
             mask={spec.spectrum.mask}
             model={null}
             z={solution ? solution.z : null}
-            markers={MARKERS}
+            markers={MARKERS_BY_CLASS[solution?.cls ?? 'unknown'] ?? MARKERS}
             skyRegions={SKY}
             smoothingPx={smoothingPx}
             height={300}
@@ -452,7 +464,7 @@ function describeHow(s: Solution): string {
     case 'auto':
       return 'automatic fit';
     case 'candidate':
-      return `candidate ${(s.candidateIndex ?? 0) + 1}`;
+      return s.candidateIndex === null ? 'a runner-up candidate' : `candidate ${s.candidateIndex + 1}`;
     case 'line':
       return s.lineId ? `line ${s.lineId.id} at ${s.lineId.observedA.toFixed(1)} Å` : 'line identification';
     case 'typed':

@@ -35,12 +35,14 @@ export function candidateSolution(result: FitResult, i: number): Solution | null
 export function solutionFromDecision(d: ReviewDecision, result: FitResult | null): Solution | null {
   if (d.state === 'rejected' || d.z === null) return null;
   const sameAsAuto = result && result.status === 'ok' && d.howSet === 'auto' && d.z === result.z;
+  // A decision taken from a runner-up keeps pointing at it (the record holds z and class, not the index).
+  const picked = !sameAsAuto && d.howSet === 'candidate' && result ? result.candidates.findIndex((c) => c.z === d.z && c.class === d.class) : -1;
   return {
     z: d.z,
     zErr: d.zErr ?? NaN,
     cls: d.class,
     howSet: d.howSet,
-    candidateIndex: sameAsAuto ? 0 : null,
+    candidateIndex: sameAsAuto ? 0 : picked >= 0 ? picked : null,
     lineId: d.lineId,
     lines: sameAsAuto ? result!.lines : null,
   };

@@ -59,7 +59,8 @@ const solutionText = async (page: Page) => ((await page.getByTestId('solution').
 async function waitForNewTitle(page: Page, before: string | null): Promise<string> {
   await page.waitForFunction((b) => {
     const t = document.querySelector('[data-testid="review-title"]')?.textContent;
-    return !!t && t !== b && !!document.querySelector('[data-testid="solution-z"]');
+    // The stored fit has arrived once the candidates are listed (keys 1-9 act on them).
+    return !!t && t !== b && !!document.querySelector('[data-testid="solution-z"]') && !!document.querySelector('[data-testid="candidate-row"]');
   }, before);
   return (await title(page))!;
 }

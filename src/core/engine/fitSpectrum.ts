@@ -18,11 +18,15 @@ import { countFeatures, lineSignificances } from './features';
 import { DLOG10, pixelsOfVelocity, shiftOfZ, velocitySeparationKms, zOfShift } from './logGrid';
 import { measureLines } from './measureLines';
 import { makeRefineContext, type RefineContext } from './refine';
-import { binLogSpectrum, resampleToLogGrid } from './resample';
+import { binLogSpectrum } from './resample';
+import { fineData } from './fineData';
 import { binRest, type RestArray } from './restArray';
 import { dataSpectra, fftSizeFor, scanConstants, scanFFT, type DataSpectra, type ScanConstants, type ScanData } from './scan';
 import { TEMPLATE_SET_ID, templateFamilies, type TemplateFamily } from './templates';
 import { ENGINE_VERSION } from './version';
+
+/** Continuum polynomial terms in the observed frame when not given. */
+export const DEFAULT_POLY_TERMS = 3;
 
 export interface FitOptions {
   /** Family ids to try (default: all; see FAMILY_IDS). */
@@ -49,8 +53,6 @@ export function scanBinningOf(f: TemplateFamily): number {
 /** Scan minima refined in all, and at most per family. */
 export const REFINE_TOTAL = 5;
 export const REFINE_PER_FAMILY = 3;
-/** Fewest usable log-grid pixels a fit accepts. */
-export const MIN_GOOD_PIXELS = 50;
 /** Largest number of points per chi-square curve. */
 export const CURVE_MAX_POINTS = 1500;
 /** Half-width of the refitNear window, km/s. */
@@ -95,45 +97,18 @@ function binnedScanVectors(f: TemplateFamily): RestArray[] {
   return v;
 }
 
-function median(a: number[]): number {
-  if (a.length === 0) return NaN;
-  const s = Float64Array.from(a).sort();
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
-}
-
 function prepare(spectrum: Spectrum, options: FitOptions): Prepared | string {
   const wl = spectrum.wavelengthA;
-  const inputBase = {
-    nPix: wl.length,
-    lambdaMinA: wl[0],
-    lambdaMaxA: wl[wl.length - 1],
-    meta: spectrum.meta,
-    format: spectrum.format,
-  };
-  const ls = resampleToLogGrid(spectrum, DLOG10);
-  const sig: number[] = [];
-  const snr: number[] = [];
-  for (let i = 0; i < ls.flux.length; i++) {
-    if (ls.ivar[i] > 0) {
-      sig.push(1 / Math.sqrt(ls.ivar[i]));
-      snr.push(Math.abs(ls.flux[i]) * Math.sqrt(ls.ivar[i]));
-    }
-  }
-  if (sig.length < MIN_GOOD_PIXELS) return `only ${sig.length} usable pixels on the log grid (need ${MIN_GOOD_PIXELS})`;
-  // Normalise so the typical sigma is 1: chi2 is unchanged, the sums stay O(1..1e5).
-  const scale = median(sig) || 1;
-  const fine: ScanData = {
-    k0: ls.k0,
-    flux: ls.flux.map((f) => f / scale),
-    ivar: ls.ivar.map((w) => w * scale * scale),
-  };
-  const P = options.polyTerms ?? 3;
+  const fd = fineData(spectrum);
+  if (typeof fd === 'string') return fd;
+  const fine = fd.data;
+  const ls = { k0: fine.k0, dlog10: DLOG10, flux: fine.flux, ivar: fine.ivar, noiseEstimated: fd.noiseEstimated };
+  const P = options.polyTerms ?? DEFAULT_POLY_TERMS;
   const binned = new Map<number, ScanData>();
   const dataAt = (b: number): ScanData => {
     let d = binned.get(b);
     if (!d) {
-      const bl = binLogSpectrum({ ...ls, flux: fine.flux, ivar: fine.ivar }, b);
+      const bl = binLogSpectrum(ls, b);
       d = { k0: bl.k0, flux: bl.flux, ivar: bl.ivar };
       binned.set(b, d);
     }
@@ -176,8 +151,8 @@ function prepare(spectrum: Spectrum, options: FitOptions): Prepared | string {
     fine,
     ctx,
     scans,
-    noiseEstimated: ls.noiseEstimated,
-    input: { ...inputBase, medianSnr: median(snr) },
+    noiseEstimated: fd.noiseEstimated,
+    input: { nPix: wl.length, lambdaMinA: wl[0], lambdaMaxA: wl[wl.length - 1], meta: spectrum.meta, format: spectrum.format, medianSnr: fd.medianSnr },
   };
 }
 
@@ -299,18 +274,35 @@ function failed(spectrum: Spectrum, message: string): FitResult {
   };
 }
 
-function assemble(spectrum: Spectrum, p: Prepared, ordered: RefinedCandidate[], options: FitOptions): FitResult {
-  if (ordered.length === 0) return failed(spectrum, 'no chi-square minimum found in the redshift range');
+/** A fit plus the feature S/Ns behind its confidence. */
+export interface DetailedFit {
+  result: FitResult;
+  featureSnrs: number[];
+}
+
+/**
+ * 'free': the best solution over every family's full range; 'refit': the
+ * first candidate was chosen inside a reviewer's window, so the gap to the
+ * other candidates says nothing about whether a template fits there.
+ */
+type FitMode = 'free' | 'refit';
+
+function assemble(spectrum: Spectrum, p: Prepared, ordered: RefinedCandidate[], options: FitOptions, mode: FitMode): DetailedFit {
+  if (ordered.length === 0) return { result: failed(spectrum, 'no chi-square minimum found in the redshift range'), featureSnrs: [] };
   const best = ordered[0];
   const chi2Gap = ordered.length > 1 ? ordered[1].chi2 - best.chi2 : Infinity;
   const sig = lineSignificances(p.fine, DLOG10, best.family, best.z);
   const feats = countFeatures(sig);
   const dPoly = polyOnlyChi2(p.ctx.consts, p.ctx.P) - best.chi2;
   let cls: SpectrumClass = best.family.class;
-  if (dPoly < UNKNOWN_DCHI2 || (feats.n === 0 && chi2Gap < 1)) cls = 'unknown';
+  // Free fit: unknown when the templates do not beat the continuum alone by
+  // UNKNOWN_DCHI2, or when no feature is seen and another solution is as good.
+  // Refit: the reviewer chose the redshift, so the class is that of the best
+  // family there whenever it improves on the continuum at all (its weakness
+  // shows in the score and grade, not in the class).
+  if (mode === 'free' ? dPoly < UNKNOWN_DCHI2 || (feats.n === 0 && chi2Gap < 1) : !(dPoly > 0)) cls = 'unknown';
   const confIn = { cls, chi2Gap, nFeatures: feats.n, featureSnrs: feats.snrs, atEdge: best.atEdge };
   const score = confidenceScore(confIn);
-  lastFeatureSnrs = feats.snrs;
   const candidates: Candidate[] = ordered.map((c) => candidateToContract(c, best.chi2));
   let lines: LineMeasurement[] = [];
   if (options.measureLines !== false && cls !== 'unknown') {
@@ -320,7 +312,7 @@ function assemble(spectrum: Spectrum, p: Prepared, ordered: RefinedCandidate[], 
       lines = [];
     }
   }
-  return {
+  const result: FitResult = {
     file: spectrum.file,
     status: 'ok',
     candidates,
@@ -338,33 +330,29 @@ function assemble(spectrum: Spectrum, p: Prepared, ordered: RefinedCandidate[], 
     engineVersion: ENGINE_VERSION,
     input: p.input,
   };
+  return { result, featureSnrs: feats.snrs };
 }
 
-/** S/N of the features counted by the most recent fit (for calibration scripts). */
-let lastFeatureSnrs: number[] = [];
-
-/** fitSpectrum plus the feature S/Ns behind its confidence (calibration, diagnostics). */
-export function fitSpectrumDetailed(spectrum: Spectrum, options: FitOptions = {}): { result: FitResult; featureSnrs: number[] } {
-  lastFeatureSnrs = [];
-  const result = fitSpectrum(spectrum, options);
-  return { result, featureSnrs: lastFeatureSnrs };
-}
-
-function guarded(spectrum: Spectrum, run: () => FitResult): FitResult {
+function guarded(spectrum: Spectrum, run: () => DetailedFit): DetailedFit {
   try {
     return run();
   } catch (e) {
-    return failed(spectrum, `internal fitting error: ${(e as Error)?.message ?? String(e)}`);
+    return { result: failed(spectrum, `internal fitting error: ${(e as Error)?.message ?? String(e)}`), featureSnrs: [] };
   }
+}
+
+/** fitSpectrum plus the feature S/Ns behind its confidence (calibration, diagnostics). */
+export function fitSpectrumDetailed(spectrum: Spectrum, options: FitOptions = {}): DetailedFit {
+  return guarded(spectrum, () => {
+    const p = prepare(spectrum, options);
+    if (typeof p === 'string') return { result: failed(spectrum, p), featureSnrs: [] };
+    return assemble(spectrum, p, orderCandidates(mergeDistinct(freeCandidates(p))), options, 'free');
+  });
 }
 
 /** Fit every template family over its full redshift range. Never throws on a valid Spectrum. */
 export function fitSpectrum(spectrum: Spectrum, options: FitOptions = {}): FitResult {
-  return guarded(spectrum, () => {
-    const p = prepare(spectrum, options);
-    if (typeof p === 'string') return failed(spectrum, p);
-    return assemble(spectrum, p, orderCandidates(mergeDistinct(freeCandidates(p))), options);
-  });
+  return fitSpectrumDetailed(spectrum, options).result;
 }
 
 /**
@@ -374,13 +362,15 @@ export function fitSpectrum(spectrum: Spectrum, options: FitOptions = {}): FitRe
  * followed by the distinct solutions of the free fit outside it; chi2Gap is
  * the next candidate's chi2 minus the chosen one's, and is negative when the
  * free fit found a better solution elsewhere. A minimum on the window's edge
- * is flagged atEdge.
+ * is flagged atEdge. The class is the best family's in the window unless no
+ * template improves on the continuum there at all.
  */
 export function refitNear(spectrum: Spectrum, zCentre: number, options: FitOptions = {}): FitResult {
+  const fail = (m: string): DetailedFit => ({ result: failed(spectrum, m), featureSnrs: [] });
   return guarded(spectrum, () => {
-    if (!Number.isFinite(zCentre) || zCentre <= -1) return failed(spectrum, `cannot refit near z = ${zCentre}`);
+    if (!Number.isFinite(zCentre) || zCentre <= -1) return fail(`cannot refit near z = ${zCentre}`);
     const p = prepare(spectrum, options);
-    if (typeof p === 'string') return failed(spectrum, p);
+    if (typeof p === 'string') return fail(p);
     const centre = shiftOfZ(zCentre, DLOG10);
     const half = pixelsOfVelocity(REFIT_HALF_WIDTH_KMS, DLOG10);
     const wLo = Math.ceil(centre - half);
@@ -392,12 +382,12 @@ export function refitNear(spectrum: Spectrum, zCentre: number, options: FitOptio
       if (hi - lo < 2) continue;
       for (const m of scanMinima(fs, lo, hi, 1)) inside.push(refineScanMinimum(p, m, lo, hi, true));
     }
-    if (inside.length === 0) return failed(spectrum, `no template family covers z = ${zCentre.toFixed(4)}`);
+    if (inside.length === 0) return fail(`no template family covers z = ${zCentre.toFixed(4)}`);
     const chosen = orderCandidates(mergeDistinct(inside))[0];
     const free = freeCandidates(p);
     const others = mergeDistinct(free).filter(
       (c) => Math.abs(velocitySeparationKms(c.z, chosen.z)) >= Math.max(distinctKms(c.family.class), distinctKms(chosen.family.class)),
     );
-    return assemble(spectrum, p, [chosen, ...others], options);
-  });
+    return assemble(spectrum, p, [chosen, ...others], options, 'refit');
+  }).result;
 }

@@ -48,8 +48,31 @@ interface Column {
   v: Float64Array;
 }
 
-/** Column of vector j at shift s over the data pixels it touches (null when none). */
+/**
+ * Column of vector j at shift s over the data pixels it touches (null when
+ * none). A fractional shift is the linear interpolation of the columns at the
+ * two whole shifts around it (for model curves at a refined z).
+ */
 function column(ctx: RefineContext, family: TemplateFamily, j: number, s: number): Column | null {
+  if (s !== Math.floor(s)) {
+    const s0 = Math.floor(s);
+    const t = s - s0;
+    const a = wholeColumn(ctx, family, j, s0);
+    const b = wholeColumn(ctx, family, j, s0 + 1);
+    const parts = [
+      { c: a, w: 1 - t },
+      { c: b, w: t },
+    ].filter((p): p is { c: Column; w: number } => p.c !== null);
+    if (parts.length === 0) return null;
+    const i0 = Math.min(...parts.map((p) => p.c.i0));
+    const v = new Float64Array(Math.max(...parts.map((p) => p.c.i0 + p.c.v.length)) - i0);
+    for (const { c, w } of parts) for (let q = 0; q < c.v.length; q++) v[c.i0 + q - i0] += w * c.v[q];
+    return { i0, v };
+  }
+  return wholeColumn(ctx, family, j, s);
+}
+
+function wholeColumn(ctx: RefineContext, family: TemplateFamily, j: number, s: number): Column | null {
   const { data } = ctx;
   const n = data.flux.length;
   let lo = Infinity;

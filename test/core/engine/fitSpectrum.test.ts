@@ -111,6 +111,20 @@ describe('refitNear(spectrum, zCentre)', () => {
     expect(Math.abs(velocitySeparationKms(0.7123, far.candidates[1].z))).toBeLessThan(100);
   });
 
+  it('gives the class of the best family in the window even when a better solution lies elsewhere', () => {
+    // A quasar at z = 2.3 whose C III] 1908.73 A line is named H-beta 4862.68 A
+    // (wavelengths: reference sheet sec. 1): the window holds no good solution,
+    // but a template still beats the continuum there, so the class is not 'unknown'.
+    const zq = 2.3;
+    const s = injectFamily(fam('qso'), [6, 3, 2, 2, 0, 0, 0], zq, { sigma: 1, seed: 5, cont: slope, forest: true });
+    const zWrong = (1908.73 * (1 + zq)) / 4862.68 - 1;
+    const r = refitNear(s, zWrong);
+    expect(r.status).toBe('ok');
+    expect(r.chi2Gap).toBeLessThan(0);
+    expect(r.class).not.toBe('unknown');
+    expect(r.class).toBe(r.candidates[0].class);
+  });
+
   it('fails cleanly outside every family range', () => {
     const s = injectFamily(fam('galaxy-sf'), [4, 4, 5, 2, 0], 0.7123, { sigma: 1, seed: 2 });
     const r = refitNear(s, 9);

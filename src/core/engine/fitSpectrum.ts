@@ -21,7 +21,7 @@ import { makeRefineContext, type RefineContext } from './refine';
 import { binLogSpectrum } from './resample';
 import { fineData } from './fineData';
 import { binRest, type RestArray } from './restArray';
-import { dataSpectra, fftSizeFor, scanConstants, scanFFT, type DataSpectra, type ScanConstants, type ScanData } from './scan';
+import { dataSpectra, fftSizeFor, scanConstants, scanSmall, scanFFT, type DataSpectra, type ScanConstants, type ScanData } from './scan';
 import { TEMPLATE_SET_ID, templateFamilies, type TemplateFamily } from './templates';
 import { ENGINE_VERSION } from './version';
 
@@ -49,6 +49,9 @@ export const QSO_SCAN_BINNING = 4;
 export function scanBinningOf(f: TemplateFamily): number {
   return f.class === 'qso' ? QSO_SCAN_BINNING : SCAN_BINNING;
 }
+
+/** Scans of at most this many shifts use plain sums instead of FFTs (scanSumsSmall; same numbers, scan.test.ts). */
+export const DIRECT_SCAN_MAX_SHIFTS = 64;
 
 /** Scan minima refined in all, and at most per family. */
 export const REFINE_TOTAL = 5;
@@ -136,6 +139,12 @@ function prepare(spectrum: Spectrum, options: FitOptions): Prepared | string {
     const sHi = Math.floor(hi / b);
     if (sHi < sLo) continue;
     const data = dataAt(b);
+    if (sHi - sLo + 1 <= DIRECT_SCAN_MAX_SHIFTS) {
+      // Stars: a few shifts; direct sums beat FFTs of the whole spectrum.
+      const r = scanSmall(data, binnedScanVectors(family), sLo, sHi, P, DLOG10 * b, constsAt(b));
+      scans.push({ family, lo, hi, binning: b, sMin: sLo, chi2: r.chi2, chi2Poly: polyOnlyChi2(constsAt(b), P) });
+      continue;
+    }
     const L = fftSizeFor(data.flux.length, sHi - sLo + 1);
     let ds = dsCache.get(`${b}|${L}`);
     if (!ds) {

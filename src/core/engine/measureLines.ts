@@ -13,7 +13,7 @@
 import type { LineMeasurement, Spectrum, SpectrumClass } from '../types';
 import { LINES, type CatalogueLine } from '../lines/catalogue';
 import { FWHM_PER_SIGMA, continuumAt, fitGaussLine, fittedFlux, propagateVariance, type GaussFitResult } from './gaussFit';
-import { bestFilterHit, continuumValue, filterAt, fitClippedContinuum } from './lines/matchedFilter';
+import { bestFilterHitStrided, continuumValue, filterAt, fitClippedContinuum } from './lines/matchedFilter';
 import { lowerIndex, pixelWidthAt, pixelWindow } from './lines/pixelWindow';
 
 /** Speed of light, km/s (exact, SI definition). */
@@ -154,7 +154,8 @@ function measureOne(s: Spectrum, z: number, p: PlannedLine, plan: readonly Plann
 
   // Starting Gaussian from a matched filter over the centre search range.
   const sigmas = profile.startFwhmKms.map((f) => Math.max(0.8 * pixA, ((f / C_KMS) * obsA) / FWHM_PER_SIGMA));
-  let start = bestFilterHit(win.xA, resid, w, kFrom, kTo, sigmas, sign as 1 | -1);
+  // Strided search (tested against the exhaustive bestFilterHit): broad filters span hundreds of pixels.
+  let start = bestFilterHitStrided(win.xA, resid, w, kFrom, kTo, sigmas, sign as 1 | -1);
   if (!start) {
     const kPred = Math.min(win.xA.length - 1, lowerIndex(win.xA, obsA));
     const h = filterAt(win.xA, resid, w, kPred, sigmas[1] ?? sigmas[0]);

@@ -113,6 +113,61 @@ export function scanSumsDirect(data: ScanData, vectors: RestArray[], sMin: numbe
   return sums;
 }
 
+/**
+ * The same sums for short shift ranges (stars), in plain loops over the
+ * overlap of each vector with the data: O(nShift * n * K) with no FFT.
+ * Tested against scanSumsDirect.
+ */
+export function scanSumsSmall(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number): ScanSums {
+  const n = data.flux.length;
+  const K = vectors.length;
+  const nShift = sMax - sMin + 1;
+  const sums = emptySums(sMin, nShift, K, P, vectors);
+  const poly = polyBasis(n, P);
+  const wf = new Float64Array(n);
+  const wp = poly.map(() => new Float64Array(n));
+  for (let i = 0; i < n; i++) {
+    const w = data.ivar[i] > 0 ? data.ivar[i] : 0;
+    wf[i] = w * data.flux[i];
+    for (let a = 0; a < P; a++) wp[a][i] = w * poly[a][i];
+  }
+  for (let si = 0; si < nShift; si++) {
+    const s = sMin + si;
+    for (let j = 0; j < K; j++) {
+      const v = vectors[j];
+      // data pixel i meets rest pixel k = k0 + i - s; values index k - kStart
+      const off = data.k0 - s - v.kStart;
+      const i0 = Math.max(0, v.lo - data.k0 + s);
+      const i1 = Math.min(n - 1, v.hi - data.k0 + s);
+      if (i1 < i0) continue;
+      const vals = v.values;
+      let tf = 0;
+      for (let i = i0; i <= i1; i++) tf += wf[i] * vals[i + off];
+      sums.tf[j][si] = tf;
+      for (let a = 0; a < P; a++) {
+        const wpa = wp[a];
+        let t = 0;
+        for (let i = i0; i <= i1; i++) t += wpa[i] * vals[i + off];
+        sums.tp[j * P + a][si] = t;
+      }
+      for (let q = j; q < K; q++) {
+        const dest = sums.tt[j * K + q];
+        if (!dest) continue;
+        const u = vectors[q];
+        const offq = data.k0 - s - u.kStart;
+        const a0 = Math.max(i0, u.lo - data.k0 + s);
+        const a1 = Math.min(i1, u.hi - data.k0 + s);
+        const w0 = wp[0];
+        let t = 0;
+        // p_0 = 1, so w p_0 is the weight itself
+        for (let i = a0; i <= a1; i++) t += w0[i] * vals[i + off] * u.values[i + offq];
+        dest[si] = t;
+      }
+    }
+  }
+  return sums;
+}
+
 /** Template spectra cached per (family key, FFT size, segment start). */
 interface TemplateSpectra {
   single: HalfSpectrum[];
@@ -455,7 +510,13 @@ export function scanFFT(
 }
 
 /** Chi-square at every shift by direct sums (slow; for tests). */
-export function scanDirect(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, dlog10?: number): ScanResult {
+export function scanDirect(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, dlog10?: number, consts?: ScanConstants): ScanResult {
   const allowed = dlog10 ? peakMasks(data, vectors, sMin, sMax - sMin + 1, dlog10) : undefined;
-  return chi2FromSums(scanSumsDirect(data, vectors, sMin, sMax, P), scanConstants(data, P), allowed);
+  return chi2FromSums(scanSumsDirect(data, vectors, sMin, sMax, P), consts ?? scanConstants(data, P), allowed);
+}
+
+/** Chi-square at every shift by scanSumsSmall (short ranges: stars). */
+export function scanSmall(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, dlog10: number, consts?: ScanConstants): ScanResult {
+  const allowed = peakMasks(data, vectors, sMin, sMax - sMin + 1, dlog10);
+  return chi2FromSums(scanSumsSmall(data, vectors, sMin, sMax, P), consts ?? scanConstants(data, P), allowed);
 }

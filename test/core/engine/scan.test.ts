@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { chi2FromSums, polyBasis, scanConstants, scanDirect, scanFFT, scanSumsDirect, scanSumsFFT, type ScanData } from '../../../src/core/engine/scan';
+import { chi2FromSums, polyBasis, scanConstants, scanDirect, scanFFT, scanSumsDirect, scanSumsFFT, scanSumsSmall, type ScanData } from '../../../src/core/engine/scan';
 import { binRest, withSupport } from '../../../src/core/engine/restArray';
 import { templateFamilies } from '../../../src/core/engine/templates';
 import { makeRng } from './synth';
@@ -34,6 +34,25 @@ describe('scan', () => {
     const chiF = chi2FromSums(fft, c).chi2;
     const chiD = chi2FromSums(dir, c).chi2;
     for (let s = 0; s < chiF.length; s += 37) expect(chiF[s]).toBeCloseTo(chiD[s], 5);
+  });
+
+  it('scanSumsSmall (stars, short ranges) equals the direct sums to 1e-12 relative', () => {
+    const fam = templateFamilies().find((f) => f.id === 'galaxy-sf')!;
+    const vecs = fam.scanVectors.map((v) => binRest(v, 3));
+    const data = randomData(900, 11870, 5);
+    const a = scanSumsSmall(data, vecs, -12, 40, 3);
+    const b = scanSumsDirect(data, vecs, -12, 40, 3);
+    const all = (s: typeof a) => [...s.tf, ...s.tp, ...s.tt.filter((x): x is Float64Array => x !== null)];
+    const A = all(a);
+    const B = all(b);
+    expect(A.length).toBe(B.length);
+    let scale = 0;
+    let worst = 0;
+    for (const arr of B) for (const v of arr) scale = Math.max(scale, Math.abs(v));
+    for (let q = 0; q < A.length; q++) for (let s = 0; s < A[q].length; s++) worst = Math.max(worst, Math.abs(A[q][s] - B[q][s]));
+    expect(scale).toBeGreaterThan(0);
+    // same sums in a different order: round-off only (keep-the-slow-version rule)
+    expect(worst / scale).toBeLessThan(1e-12);
   });
 
   it('scanDirect with one template and no polynomial is the linear-amplitude formula of the reference sheet (sec. 5)', () => {

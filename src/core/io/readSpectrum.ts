@@ -11,13 +11,19 @@ import { gunzipChecked, isGzip, MAX_GUNZIP_BYTES } from './gzip';
 import { isFits, readFits } from './fits/readFits';
 import { readTextSpectrum } from './text';
 
+/** Longest reason shown, characters: a header value quoted in a message can be megabytes long. */
+export const MAX_REASON_CHARS = 500;
+
 export type ReadOutcome = { ok: true; spectrum: Spectrum } | { ok: false; error: SpectrumReadError };
 
 export function readSpectrum(bytes: Uint8Array, file: string): Spectrum {
   try {
     return sniffAndRead(bytes, file, false);
   } catch (e) {
-    if (e instanceof SpectrumReadError) throw e;
+    if (e instanceof SpectrumReadError) {
+      if (e.reason.length <= MAX_REASON_CHARS) throw e;
+      throw new SpectrumReadError(file, `${e.reason.slice(0, MAX_REASON_CHARS - 3)}...`, e.where);
+    }
     const msg = e instanceof Error ? e.message : String(e);
     throw new SpectrumReadError(file, `internal reader error: ${msg}`);
   }

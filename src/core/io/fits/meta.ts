@@ -22,7 +22,7 @@ function firstNumber(hs: readonly FitsHeader[], keys: readonly string[]): number
     for (const k of keys) {
       const v = h.get(k);
       if (typeof v === 'number' && Number.isFinite(v)) return v;
-      if (typeof v === 'string' && /^[+-]?(\d+\.?\d*|\.\d+)([eEdD][+-]?\d+)?$/.test(v.trim())) return Number(v.trim().replace(/[dD]/, 'e'));
+      if (typeof v === 'string' && /^[+-]?(\d+(?:\.\d*)?|\.\d+)([eEdD][+-]?\d+)?$/.test(v.trim())) return Number(v.trim().replace(/[dD]/, 'e'));
     }
   }
   return undefined;
@@ -35,7 +35,8 @@ function firstNumber(hs: readonly FitsHeader[], keys: readonly string[]): number
  */
 export function parseSexagesimal(text: string): number | undefined {
   const t = text.trim();
-  if (/^[+-]?(\d+\.?\d*|\.\d+)$/.test(t)) return Number(t);
+  // Not '\d+\.?\d*', which backtracks quadratically on a long run of digits (CONTINUE strings).
+  if (/^[+-]?(\d+(?:\.\d*)?|\.\d+)$/.test(t)) return Number(t);
   const m = /^([+-])?\s*(\d+)[\s:hHdD]+(\d+)[\s:mM']+(\d+(?:\.\d*)?)\s*[sS"]?$/.exec(t) ?? /^([+-])?\s*(\d+)[\s:hHdD]+(\d+(?:\.\d*)?)[mM']?$/.exec(t);
   if (!m) return undefined;
   const a = Number(m[2]);

@@ -59,6 +59,13 @@ const COLUMN_KEYS = new Set(['columns', 'column_names', 'cols', 'fields']);
 /** Values that mean "not known": the key is skipped, not an error. */
 const UNKNOWN = /^(?:|n\/?a|none|unknown|-+|\?)$/i;
 
+/**
+ * Longest angle or exposure value read, characters. Real ones are under 30; the
+ * cap keeps the regular expressions below (whose blank runs can be split many
+ * ways) from taking seconds on a 65,000-character comment.
+ */
+const MAX_FACT_CHARS = 64;
+
 const KEY_VALUE = /^([A-Za-z][A-Za-z0-9_ .\-]{0,40}?)\s*[:=]\s*(.*)$/;
 
 /** Collect metadata and wavelength statements; throws CommentError on a value that cannot be read. */
@@ -70,7 +77,9 @@ export function readCommentFacts(comments: readonly CommentLine[]): CommentFacts
     const key = m[1].trim().toLowerCase().replace(/[^a-z0-9]+/g, '_');
     // FITS-style `KEY = 'value' / comment`: drop the trailing comment, then the quotes.
     let value = m[2].trim();
-    if (/^'.*'\s*\/.*$/.test(value)) value = value.replace(/\s*\/[^']*$/, '');
+    // Found by index, not by /^'.*'\s*\/.*$/ and /\s*\/[^']*$/, which backtrack quadratically on long lines.
+    const lastQuote = value.lastIndexOf("'");
+    if (value.startsWith("'") && lastQuote > 0 && /^\s*\//.test(value.slice(lastQuote + 1))) value = value.slice(0, lastQuote + 1);
     value = stripQuotes(value.trim()).trim();
     if (WAVELENGTH_KEYS.has(key)) {
       const words = wavelengthWords(nameTokens(value));
@@ -100,7 +109,8 @@ function setMeta(meta: SpectrumMeta, target: MetaKey, value: string, line: numbe
       return;
     }
     case 'exposureS': {
-      const m = /^([+]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(?:s|sec|secs|seconds?)?$/.exec(value);
+      if (value.length > MAX_FACT_CHARS) return;
+      const m = /^([+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(?:s|sec|secs|seconds?)?$/.exec(value);
       if (m) meta.exposureS = Number(m[1]);
       return;
     }
@@ -116,7 +126,8 @@ function setMeta(meta: SpectrumMeta, target: MetaKey, value: string, line: numbe
  */
 export function parseAngleDeg(value: string, isRa: boolean): number | undefined {
   const v = value.trim().toLowerCase();
-  const decimal = /^([+-]?(?:\d+\.?\d*|\.\d+))\s*(?:d|deg|degrees?)?$/.exec(v);
+  if (v.length > MAX_FACT_CHARS) return undefined;
+  const decimal = /^([+-]?(?:\d+(?:\.\d*)?|\.\d+))\s*(?:d|deg|degrees?)?$/.exec(v);
   let deg: number;
   if (decimal) deg = Number(decimal[1]);
   else {

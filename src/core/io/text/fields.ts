@@ -65,7 +65,7 @@ function splitQuoted(line: string, sep: Separator): string[] {
 }
 
 /** Decimal number syntax the reader accepts; the reference for scanNumber. */
-export const NUMBER_SYNTAX = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eEdD][+-]?\d+)?$/;
+export const NUMBER_SYNTAX = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eEdD][+-]?\d+)?$/;
 const MISSING = /^(?:[+-]?nan|null|na|n\/a|--)$/i;
 const INFINITE = /^[+-]?inf(?:inity)?$/i;
 

@@ -6,7 +6,7 @@
  * what the message has to name. Limits: see README.md in this folder.
  */
 import { describe, expect, it } from 'vitest';
-import { readSpectrum } from '../../src/core/io/readSpectrum';
+import { MAX_REASON_CHARS, readSpectrum } from '../../src/core/io/readSpectrum';
 import { gunzipChecked, MAX_GUNZIP_BYTES } from '../../src/core/io/gzip';
 import { MAX_PIXELS } from '../../src/core/io/assemble';
 import { MAX_LINE_CHARS, MAX_TEXT_BYTES } from '../../src/core/io/text';
@@ -46,6 +46,7 @@ describe('hostile corpus through readSpectrum(bytes, name)', () => {
       expect(error.message.startsWith(entry.name)).toBe(true);
       expect(error.reason).not.toMatch(/internal reader error/);
       expect(error.reason.length).toBeGreaterThan(5);
+      expect(error.reason.length).toBeLessThanOrEqual(MAX_REASON_CHARS);
       if (entry.outcome === 'spectrum') throw new Error(`expected a spectrum, got: ${error.message}`);
       if (entry.says) expect(error.message).toMatch(entry.says);
     } else {

@@ -286,6 +286,20 @@ function fitsStructureEntries(): HostileEntry[] {
   e.push({ name: 'header-equals-no-space.fits', bytes: () => imageWithCards([...IMAGE_BASE(), rawCard('CRVAL1  =4000'), ...WCS_OK.filter((c) => !c.startsWith('CRVAL1'))]), outcome: 'spectrum' });
   e.push({ name: 'header-complex-value.fits', bytes: () => imageWithCards([...IMAGE_BASE(), rawCard('CDELT1  = (1.0, 2.0)'), ...WCS_OK.filter((c) => !c.startsWith('CDELT1'))]), outcome: 'error', says: /CDELT1/ });
   e.push({ name: 'header-first-card-not-simple.fits', bytes: () => imageWithCards([rawCard('SIMPLE  = T'), ...IMAGE_BASE().slice(1), ...WCS_OK].reverse()), outcome: 'error' });
+  // Regression: CONTINUE chains were joined card by card (a minute for this one) and digit strings
+  // hit a quadratic regular expression; the long value must also not flood the message.
+  const chain = (key: string, piece: string, n: number) => () => {
+    const body = piece.repeat(66).slice(0, 66);
+    const cards = [...IMAGE_BASE(), ...WCS_OK.filter((c) => !c.startsWith(key.padEnd(8))), rawCard(`${key.padEnd(8)}= '${body}&'`)];
+    for (let i = 0; i < n; i++) cards.push(rawCard(`CONTINUE  '${body}&'`));
+    cards.push(rawCard("CONTINUE  '1x'"));
+    return imageWithCards(cards);
+  };
+  e.push({ name: 'header-continue-chain-35000-object.fits', bytes: chain('OBJECT', 'ab', 35_000), outcome: 'spectrum' });
+  e.push({ name: 'header-continue-chain-35000-cunit1.fits', bytes: chain('CUNIT1', 'n', 35_000), outcome: 'error', says: /CUNIT1/ });
+  e.push({ name: 'header-continue-digits-crval1.fits', bytes: chain('CRVAL1', '1', 2_000), outcome: 'error', says: /CRVAL1/ });
+  e.push({ name: 'header-continue-digits-exptime.fits', bytes: chain('EXPTIME', '1', 2_000), outcome: 'spectrum' });
+  e.push({ name: 'header-continue-digits-ra.fits', bytes: chain('RA', '1', 2_000), outcome: 'spectrum' });
   e.push({
     name: 'trailing-xtension-junk.fits',
     bytes: () => concat(validImageFits(), utf8("XTENSION= 'BINTABLE'  truncated extension")),
@@ -540,6 +554,11 @@ function textEntries(): HostileEntry[] {
   e.push(text('csv-header-many-brackets.csv', 'wavelength,flux' + '('.repeat(60_000) + '\n' + rows((i) => `${4000 + i},1`), 'spectrum'));
   e.push(text('csv-header-many-quotes.csv', 'wavelength,"' + '"'.repeat(60_000) + '\n' + rows((i) => `${4000 + i},1`)));
   e.push(text('csv-line-just-under-limit.csv', 'wavelength,flux\n' + `4000,1${' '.repeat(65_000)}\n` + rows((i) => `${4001 + i},1`), 'spectrum'));
+  // Regression: three comment regular expressions backtracked quadratically (~3-4 s each on these lines).
+  const long = (comment: string) => `${comment}\nwavelength,flux\n${rows((i) => `${4000 + i},1`)}`;
+  e.push(text('csv-comment-long-quoted.csv', long(`# object: '${' '.repeat(60_000)}'/'`), 'spectrum'));
+  e.push(text('csv-comment-long-ra.csv', long(`# ra: 1 ${' '.repeat(60_000)}1`), 'spectrum'));
+  e.push(text('csv-comment-long-exptime.csv', long(`# exptime: ${'1'.repeat(30_000)}.${'1'.repeat(30_000)}x`), 'spectrum'));
   e.push(text('csv-comment-conflict.csv', '# wavelength: air, vacuum\nwavelength,flux\n' + rows((i) => `${4000 + i},1`), 'error', /contradicts/));
   e.push(text('csv-comment-bad-ra.csv', '# ra: 99:99:99\n# exptime: forever\nwavelength,flux\n' + rows((i) => `${4000 + i},1`), 'spectrum'));
   e.push(text('csv-two-wavelength-columns.csv', 'wavelength,wave,flux\n' + rows((i) => `${4000 + i},${4000 + i},1`), 'error', /wavelength/));

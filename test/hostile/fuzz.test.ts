@@ -10,7 +10,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { gzipSync } from 'fflate';
-import { readSpectrum } from '../../src/core/io/readSpectrum';
+import { MAX_REASON_CHARS, readSpectrum } from '../../src/core/io/readSpectrum';
 import { trailingBracket } from '../../src/core/io/text/columnNames';
 import { fitsHeaderBytes, writeBinTableHdu, writeEmptyPrimaryHdu, writeImageHdu } from '../../src/core/io/fits/write';
 import { SpectrumReadError, type Spectrum } from '../../src/core/types';
@@ -40,6 +40,7 @@ function readOrRefuse(bytes: Uint8Array, name: string): Spectrum | null {
     if (!(e instanceof SpectrumReadError)) throw e;
     if (!e.message.startsWith(name)) throw new Error(`message does not start with the file name: ${e.message}`);
     if (/internal reader error/.test(e.reason)) throw new Error(`reader bug: ${e.message}`);
+    if (e.reason.length > MAX_REASON_CHARS) throw new Error(`reason of ${e.reason.length} characters`);
     return null;
   }
 }

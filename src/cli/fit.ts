@@ -15,6 +15,7 @@ import { parseCosmologyOption } from './cosmologyOption';
 import { failedResult } from '../core/pipeline';
 import { automaticRow, catalogueTableWriter, type TableFormat } from '../core/table';
 import { ENGINE_VERSION, TEMPLATE_SET_ID } from '../core/engine';
+import { SOFTWARE_NAME, SOFTWARE_VERSION } from '../core/version';
 import type { FitJob, FitJobResult } from './fitThread';
 
 const USAGE = `usage: npm run fit -- <files or folders...> --out <table.csv> [options]
@@ -49,14 +50,20 @@ async function main(argv: string[]): Promise<number> {
   const files = selectShard(all, shard);
 
   const out: WriteStream | NodeJS.WriteStream = outPath ? createWriteStream(outPath) : process.stdout;
+  // A closed pipe (e.g. `| head`) ends the run quietly rather than with a stack trace.
+  out.on('error', (e: NodeJS.ErrnoException) => {
+    if (e.code === 'EPIPE') process.exit(0);
+    process.stderr.write(`error: cannot write ${outPath ?? 'standard output'}: ${e.message}\n`);
+    process.exit(1);
+  });
   const writer = catalogueTableWriter(format, {
-    software: 'Shiftmark',
-    version: ENGINE_VERSION,
+    software: SOFTWARE_NAME,
+    version: SOFTWARE_VERSION,
     templateSet: TEMPLATE_SET_ID,
     cosmology,
     createdAt: new Date().toISOString(),
     headerBlock: !args.flags.has('no-header'),
-    extra: { shard: `${shard.index}/${shard.count}`, inputs_total: String(all.length), input_list: listFingerprint(all) },
+    extra: { engine: ENGINE_VERSION, shard: `${shard.index}/${shard.count}`, inputs_total: String(all.length), input_list: listFingerprint(all) },
   });
   const write = (s: string) => new Promise<void>((res) => (out.write(s) ? res() : out.once('drain', () => res())));
   await write(writer.begin());

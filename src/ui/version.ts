@@ -1,3 +1,5 @@
-/** Software name and version written into every export (kept in step with package.json by hand). */
-export const SOFTWARE_VERSION = '0.1.0';
-export const SOFTWARE_NAME_VERSION = `Shiftmark ${SOFTWARE_VERSION}`;
+/** Software name and version written into every export (one source: src/core/version.ts). */
+import { SOFTWARE_NAME, SOFTWARE_VERSION } from '../core/version';
+
+export { SOFTWARE_VERSION };
+export const SOFTWARE_NAME_VERSION = `${SOFTWARE_NAME} ${SOFTWARE_VERSION}`;

@@ -16,6 +16,7 @@ import {
   type TableRow,
 } from '../../core/table';
 import { SOFTWARE_VERSION } from '../version';
+import { ENGINE_VERSION } from '../../core/engine/version';
 
 export type ExportFormat = 'csv' | 'csv-plain' | 'json' | 'fits' | 'votable';
 
@@ -62,7 +63,7 @@ export async function buildExport(
     if (!templateSet && result.status === 'ok') templateSet = result.templateSet;
     rows.push(catalogueRow(result, r.decision, cosmology));
   }
-  const meta: ExportMeta = { software: 'Shiftmark', version: SOFTWARE_VERSION, templateSet: templateSet || 'none (no spectrum fitted)', cosmology, createdAt };
+  const meta: ExportMeta = { software: 'Shiftmark', version: SOFTWARE_VERSION, templateSet: templateSet || 'none (no spectrum fitted)', cosmology, createdAt, extra: { engine: ENGINE_VERSION } };
   const cols = CATALOGUE_COLUMNS;
   let data: string | Uint8Array;
   switch (format) {

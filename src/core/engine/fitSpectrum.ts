@@ -20,6 +20,7 @@ import { measureLines } from './measureLines';
 import { makeRefineContext, type RefineContext } from './refine';
 import { binLogSpectrum } from './resample';
 import { fineData } from './fineData';
+import { withFloor } from './errorFloor';
 import { binRest, type RestArray } from './restArray';
 import { dataSpectra, fftSizeFor, scanConstants, scanSmall, scanFFT, type DataSpectra, type ScanConstants, type ScanData } from './scan';
 import { TEMPLATE_SET_ID, templateFamilies, type TemplateFamily } from './templates';
@@ -186,7 +187,8 @@ function scanMinima(fs: FamilyScan, lo: number, hi: number, count: number): Scan
 /** Refine one scan minimum on the fine grid between lo..hi. */
 function refineScanMinimum(p: Prepared, m: ScanMinimum, lo: number, hi: number, windowEdges: boolean): RefinedCandidate {
   const { fs } = m;
-  return refineMinimum(p.ctx, fs.family, (fs.sMin + m.index) * fs.binning, lo, hi, windowEdges || lo === fs.lo, windowEdges || hi === fs.hi);
+  const c = refineMinimum(p.ctx, fs.family, (fs.sMin + m.index) * fs.binning, lo, hi, windowEdges || lo === fs.lo, windowEdges || hi === fs.hi);
+  return withFloor(c, p.input.lambdaMinA, p.input.lambdaMaxA);
 }
 
 /** The free fit: the best REFINE_TOTAL scan minima across families (at most REFINE_PER_FAMILY each), refined. */

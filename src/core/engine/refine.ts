@@ -19,6 +19,8 @@ export interface RefineContext {
   consts: ScanConstants;
   /** Observed-frame modulation per pixel: mean forest depth 1 - F(lambda). */
   forestDepth: Float64Array;
+  /** Mean forest transmission F(lambda) per pixel (1 where no forest can be). */
+  forestTrans: Float64Array;
   /** Work buffer: continuum multiplier per pixel. */
   cm: Float64Array;
   /** w_i f_i and w_i p_a(i) per pixel (0 where w = 0), precomputed for the inner loops. */
@@ -40,7 +42,8 @@ export function makeRefineContext(data: ScanData, P: number, dlog10: number): Re
     wf[i] = w * data.flux[i];
     for (let a = 0; a < P; a++) wp[a][i] = w * poly[a][i];
   }
-  return { data, dlog10, P, poly, consts: scanConstants(data, P), forestDepth: fd, cm: new Float64Array(n), wf, wp };
+  const ft = fd.map((d) => 1 - d);
+  return { data, dlog10, P, poly, consts: scanConstants(data, P), forestDepth: fd, forestTrans: ft, cm: new Float64Array(n), wf, wp };
 }
 
 interface Column {
@@ -88,7 +91,7 @@ function wholeColumn(ctx: RefineContext, family: TemplateFamily, j: number, s: n
   const v = new Float64Array(i1 - i0 + 1);
   for (const p of family.vectors[j].pieces) {
     const { kStart, values } = p.rest;
-    const mod = p.modulation === 'forestDepth' ? ctx.forestDepth : null;
+    const mod = p.modulation === 'forestDepth' ? ctx.forestDepth : p.modulation === 'forestTransmission' ? ctx.forestTrans : null;
     for (let i = i0; i <= i1; i++) {
       const r = data.k0 + i - s - kStart;
       if (r < 0 || r >= values.length) continue;

@@ -10,7 +10,7 @@
  */
 import type { SpectrumClass } from '../types';
 import { lineById, LYMAN_LIMIT_A } from '../lines/catalogue';
-import { C_KMS, pixelsOfVelocity } from './logGrid';
+import { C_KMS, DLOG10, pixelsOfVelocity } from './logGrid';
 import { combine, normalisePeak, sampleRest, withSupport, type RestArray } from './restArray';
 
 // The template set id lives in version.ts (light to import); bump it there when templates change.
@@ -25,10 +25,12 @@ const CUT_SIGMA = 5;
  * How a piece of a vector is modulated in the observed frame:
  * 'none' — rest-frame shape only; 'forestDepth' — multiplied by the mean
  * Lyman-alpha forest absorption 1 - exp(-tau_eff) at the observed wavelength
- * (forestDepth in forest.ts). Only the refinement stage applies modulation;
+ * (forestDepth in forest.ts); 'forestTransmission' — multiplied by the mean
+ * transmission exp(-tau_eff) itself (the forest eats the blue wing of the
+ * Lyman-alpha line as it does the continuum). Only the refinement stage applies modulation;
  * the FFT scan uses the rest-frame-only scanVectors.
  */
-export type Modulation = 'none' | 'forestDepth';
+export type Modulation = 'none' | 'forestDepth' | 'forestTransmission';
 
 export interface VectorPiece {
   rest: RestArray;
@@ -171,10 +173,34 @@ const BROAD = [
 ];
 
 /**
- * High-ionisation lines peak blueward of systemic (Richards et al. 2002, AJ 124, 1);
- * 600 km/s is a typical C IV blueshift (median ~800 km/s, reference sheet sec. 6, [M]).
+ * High-ionisation lines peak blueward of systemic by 0 to more than
+ * 2000 km/s, C IV most (Richards et al. 2002, AJ 124, 1; median ~800 km/s,
+ * reference sheet sec. 6, [M]). The full model carries the C IV group twice,
+ * at HIGH_ION_NEAR_KMS and HIGH_ION_FAR_KMS, with free non-negative
+ * amplitudes: their blend peaks anywhere in between, so the object's own
+ * blueshift is fitted instead of biasing z; the redshift then rests on the
+ * low-ionisation lines (Mg II, Balmer, narrow [O III]) and C III], Ly-alpha
+ * where present. The scan uses one copy at the median shift.
  */
-const HIGH_ION_SHIFT_KMS = -600;
+const HIGH_ION_NEAR_KMS = -100;
+const HIGH_ION_FAR_KMS = -1700;
+const HIGH_ION_MEDIAN_KMS = -800;
+/** N V shares part of the C IV blueshift (typical, from memory). */
+const NV_SHIFT_KMS = -400;
+
+/** Split a rest array at a wavelength: [part below, part at or above]. */
+function splitAt(r: RestArray, lambdaA: number): [RestArray, RestArray] {
+  const kCut = Math.log10(lambdaA) / DLOG10;
+  const below = r.values.map((v, j) => (r.kStart + j < kCut ? v : 0));
+  const above = r.values.map((v, j) => (r.kStart + j < kCut ? 0 : v));
+  const a = withSupport(r.kStart, below);
+  const b = withSupport(r.kStart, above);
+  if (r.peaksA) {
+    a.peaksA = r.peaksA;
+    b.peaksA = r.peaksA;
+  }
+  return [a, b];
+}
 
 /**
  * Relative line fluxes inside each group: approximately the composite of
@@ -184,19 +210,23 @@ function quasarFamily(): TemplateFamily {
   const lya = emissionGroup(
     [
       { id: 'LyA', flux: 100 },
-      { id: 'NV', flux: 15, offsetKms: HIGH_ION_SHIFT_KMS },
+      { id: 'NV', flux: 15, offsetKms: NV_SHIFT_KMS },
     ],
     BROAD,
   );
-  const civ = emissionGroup(
-    [
-      { id: 'CIV', flux: 26, offsetKms: HIGH_ION_SHIFT_KMS },
-      { id: 'SiIV', flux: 8, offsetKms: HIGH_ION_SHIFT_KMS },
-      { id: 'OI_1304', flux: 2 },
-      { id: 'HeII_1640', flux: 2, offsetKms: HIGH_ION_SHIFT_KMS },
-    ],
-    BROAD,
-  );
+  const civAt = (offsetKms: number) =>
+    emissionGroup(
+      [
+        { id: 'CIV', flux: 26, offsetKms },
+        { id: 'SiIV', flux: 8, offsetKms },
+        { id: 'OI_1304', flux: 2 },
+        { id: 'HeII_1640', flux: 2, offsetKms },
+      ],
+      BROAD,
+    );
+  const civ = civAt(HIGH_ION_MEDIAN_KMS);
+  const civNear = civAt(HIGH_ION_NEAR_KMS);
+  const civFar = civAt(HIGH_ION_FAR_KMS);
   const ciii = emissionGroup([{ id: 'CIII', flux: 16 }], BROAD);
   const mgii = emissionGroup([{ id: 'MgII', flux: 15 }], BROAD);
   const balmer = emissionGroup(
@@ -237,7 +267,13 @@ function quasarFamily(): TemplateFamily {
     ],
     [{ fwhmKms: 500, share: 1 }],
   );
-  const uv = normalisePeak(combine([{ r: lya, weight: 1 }, { r: civ, weight: 0.35 }, { r: ciii, weight: 0.18 }]));
+  // The blue half of Ly-alpha sits in the forest: the full model multiplies it
+  // by the mean transmission; the scan takes half of it (transmission ~0.5 at
+  // z ~ 3.5, Faucher-Giguere et al. 2008, reference sheet sec. 6).
+  const [lyaBlue, lyaRed] = splitAt(lya, LYA_REST_A);
+  const uv = normalisePeak(
+    combine([{ r: lyaRed, weight: 1 }, { r: lyaBlue, weight: 0.5 }, { r: civ, weight: 0.35 }, { r: ciii, weight: 0.18 }]),
+  );
   const low = normalisePeak(combine([{ r: mgii, weight: 1 }, { r: balmer, weight: 1 }]));
   const broadFeat = (id: string): FeatureLine => ({ id, restA: restOf({ id, flux: 0 }), kind: 'emission', fwhmKms: 4000 });
   return {
@@ -246,8 +282,18 @@ function quasarFamily(): TemplateFamily {
     zMin: 0,
     zMax: 6.5,
     vectors: [
-      single('LyA+NV', lya),
-      single('CIV+SiIV', civ),
+      {
+        id: 'LyA+NV',
+        pieces: [
+          // The forest in front eats the line's blue wing as it does the
+          // continuum: without this, z comes out ~1000-1700 km/s high at z > 4
+          // in simulations (the red wing alone pulls the centre).
+          { rest: lyaBlue, modulation: 'forestTransmission' },
+          { rest: lyaRed, modulation: 'none' },
+        ],
+      },
+      single('CIV+SiIV', civNear),
+      single('CIV+SiIV blueshifted', civFar),
       single('CIII]', ciii),
       single('MgII', mgii),
       single('Balmer', balmer),
@@ -316,13 +362,23 @@ function starFormingFamily(): TemplateFamily {
   return {
     id: 'galaxy-sf',
     class: 'galaxy',
-    zMin: 0,
+    zMin: GALAXY_Z_MIN,
     zMax: 1.6,
     vectors: [single('[OII]', oii), single('Balmer', balmer), single('[OIII]', oiii), single('[NII]+[SII]', nii), single('continuum', cont)],
     scanVectors: [oii, balmerNii, oiii],
     features: ['OII', 'NeIII', 'Hdel', 'Hgam', 'Hbeta', 'OIII_4960', 'OIII_5008', 'Halpha', 'NII_6585', 'SII_6718'].map(narrowFeat),
   };
 }
+
+/**
+ * Galaxies are searched from just beyond the stellar velocity range
+ * (STAR_VMAX_KMS): inside it a galaxy redshift and a star's Doppler shift
+ * cannot be told apart by z, and an absorption spectrum at z ~ 0 is far more
+ * likely a star in a survey of faint compact targets (a galaxy at cz < 1000
+ * km/s is a nearby, extended object that fibre surveys rarely target;
+ * common practice, stated as a prior here).
+ */
+const GALAXY_Z_MIN = 1000 / C_KMS;
 
 /** Velocity dispersion broadening of absorption lines in galaxies: sigma 200 km/s (common practice). */
 function galSigmaA(restA: number, intrinsicA: number): number {
@@ -381,7 +437,7 @@ function passiveFamily(): TemplateFamily {
   return {
     id: 'galaxy-passive',
     class: 'galaxy',
-    zMin: 0,
+    zMin: GALAXY_Z_MIN,
     zMax: 1.6,
     vectors: [single('old', old), single('young', young)],
     scanVectors: [old],

@@ -33,7 +33,7 @@ describe('solutionModel(spectrum, z, family)', () => {
   it('reproduces a quasar injection with the mean forest on the continuum', () => {
     const z = 2.81;
     // Ly-alpha, C IV and C III] groups (Mg II would lie beyond the red end at this z, where the engine drops a line whose centre is outside).
-    const s = injectFamily(fam('qso'), [6, 3, 2, 0, 0, 0, 0], z, { sigma: 1e-6, seed: 1, forest: true });
+    const s = injectFamily(fam('qso'), [6, 3, 1, 2, 0, 0, 0, 0], z, { sigma: 1e-6, seed: 1, forest: true });
     const m = solutionModel(s, z, 'qso');
     let peak = 0;
     for (const f of s.flux) peak = Math.max(peak, Math.abs(f));

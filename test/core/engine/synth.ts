@@ -59,7 +59,8 @@ export function injectFamily(
       if (!amps[j]) return;
       for (const p of v.pieces) {
         const val = (1 - t) * valueAt(p.rest, k0) + t * valueAt(p.rest, k0 + 1);
-        f += amps[j] * val * (p.modulation === 'forestDepth' ? forestDepth(wl[i]) : 1);
+        const mod = p.modulation === 'forestDepth' ? forestDepth(wl[i]) : p.modulation === 'forestTransmission' ? forestTransmission(wl[i]) : 1;
+        f += amps[j] * val * mod;
       }
     });
     flux[i] = f + opts.sigma * rng.gauss();

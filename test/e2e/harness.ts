@@ -47,6 +47,7 @@ let built: Promise<string> | null = null;
 export function buildApp(): Promise<string> {
   built ??= (async () => {
     const outDir = tempDir('dist');
+    process.once('exit', () => removeDir(outDir));
     const { build } = await import('vite');
     await build({ root: ROOT, logLevel: 'warn', configFile: join(ROOT, 'vite.config.ts'), build: { outDir, emptyOutDir: true, sourcemap: false } });
     return outDir;
@@ -104,13 +105,25 @@ export const CHROMIUM_ARGS = [
   '--disable-dev-shm-usage',
 ];
 
+/**
+ * Page functions passed to page.evaluate are serialised. When this code runs
+ * under tsx (the benchmark), esbuild's keepNames wraps named inner functions
+ * in a `__name` helper that the page lacks (and the page's CSP forbids string
+ * eval as a way round it). This identity stand-in, injected before the app,
+ * lets such functions run; the app never uses the name.
+ */
+const PAGE_FUNCTION_SHIM = 'globalThis.__name ??= (target) => target;';
+
 export async function launchBrowser(userDataDir?: string): Promise<{ browser?: Browser; context: BrowserContext }> {
+  let browser: Browser | undefined;
+  let context: BrowserContext;
   if (userDataDir) {
-    const context = await chromium.launchPersistentContext(userDataDir, { executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS, headless: true, acceptDownloads: true, viewport: VIEWPORT });
-    return { context };
+    context = await chromium.launchPersistentContext(userDataDir, { executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS, headless: true, acceptDownloads: true, viewport: VIEWPORT });
+  } else {
+    browser = await chromium.launch({ executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS, headless: true });
+    context = await browser.newContext({ acceptDownloads: true, viewport: VIEWPORT });
   }
-  const browser = await chromium.launch({ executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS, headless: true });
-  const context = await browser.newContext({ acceptDownloads: true, viewport: VIEWPORT });
+  await context.addInitScript({ content: PAGE_FUNCTION_SHIM });
   return { browser, context };
 }
 
@@ -159,6 +172,7 @@ export async function spawnChromium(userDataDir: string, timeoutMs = 30_000): Pr
   }
   const browser = await chromium.connectOverCDP(`http://127.0.0.1:${port}`);
   const context = browser.contexts()[0];
+  await context.addInitScript({ content: PAGE_FUNCTION_SHIM });
   const killHard = async () => {
     process.kill(pid, 'SIGKILL');
     await exited;
@@ -215,8 +229,6 @@ export function artifactPath(name: string): string {
  * reload that finds everything fitted shows no progress bar at all.)
  */
 export async function waitForFitting(page: Page, expected: number, timeoutMs = 120_000): Promise<void> {
-  // No named inner functions in page code: tsx (esbuild keepNames) would wrap
-  // them in a helper the page lacks, and the page's CSP forbids string eval.
   await page.waitForFunction(
     (n) => {
       const text = ['count-waiting', 'count-done', 'count-failed'].map((id) => document.querySelector(`[data-testid="${id}"]`)?.textContent ?? 'NaN');

@@ -88,6 +88,9 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
   const alive = useRef(key);
   alive.current = key;
 
+  // A spectrum opened while its fit was still running is loaded again when the fit lands.
+  const fitted = row.summary !== undefined;
+
   // Load the stored fit and the spectrum for display (bytes from the database when the worker has not got them).
   useEffect(() => {
     let stale = false;
@@ -123,9 +126,9 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
     return () => {
       stale = true;
     };
-    // The decision is read once per spectrum; later decisions come from this panel.
+    // The decision is read once per spectrum (and fit); later decisions come from this panel.
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [key, session, review]);
+  }, [key, session, review, fitted]);
 
   // Measure lines for a solution that has none yet.
   useEffect(() => {

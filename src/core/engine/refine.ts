@@ -46,6 +46,49 @@ export function makeRefineContext(data: ScanData, P: number, dlog10: number): Re
   return { data, dlog10, P, poly, consts: scanConstants(data, P), forestDepth: fd, forestTrans: ft, cm: new Float64Array(n), wf, wp };
 }
 
+/** Prefix sums for the forest-modulated continuum (built once per spectrum, on first quasar use). */
+interface ForestPrefix {
+  /** [(i) * P * P + a * P + c]: sum over pixels < i of w p_a p_c (F^2 - 1), and of -w p_a p_c. */
+  pForest: Float64Array;
+  pAbs: Float64Array;
+  /** [(i) * P + a]: sum over pixels < i of w f p_a (F - 1), and of -w f p_a. */
+  fForest: Float64Array;
+  fAbs: Float64Array;
+}
+
+const prefixCache = new WeakMap<RefineContext, ForestPrefix>();
+
+function forestPrefix(ctx: RefineContext): ForestPrefix {
+  let ps = prefixCache.get(ctx);
+  if (ps) return ps;
+  const { P, poly, wf, wp } = ctx;
+  const n = ctx.data.flux.length;
+  const T = P * P;
+  const pForest = new Float64Array((n + 1) * T);
+  const pAbs = new Float64Array((n + 1) * T);
+  const fForest = new Float64Array((n + 1) * P);
+  const fAbs = new Float64Array((n + 1) * P);
+  for (let i = 0; i < n; i++) {
+    const F = ctx.forestTrans[i];
+    const d = F * F - 1;
+    const e = F - 1;
+    for (let a = 0; a < P; a++) {
+      const o = i * P + a;
+      fForest[o + P] = fForest[o] + wf[i] * poly[a][i] * e;
+      fAbs[o + P] = fAbs[o] - wf[i] * poly[a][i];
+      for (let c = 0; c < P; c++) {
+        const u = i * T + a * P + c;
+        const wpp = wp[a][i] * poly[c][i];
+        pForest[u + T] = pForest[u] + wpp * d;
+        pAbs[u + T] = pAbs[u] - wpp;
+      }
+    }
+  }
+  ps = { pForest, pAbs, fForest, fAbs };
+  prefixCache.set(ctx, ps);
+  return ps;
+}
+
 interface Column {
   i0: number;
   v: Float64Array;
@@ -129,30 +172,28 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
     for (let c = 0; c < P; c++) M[a * n + c] = consts.pp[a * P + c];
   }
   // Quasars: continuum times the mean forest transmission blueward of Ly-alpha,
-  // zero below the Lyman limit (templates.ts, forestOnContinuum).
-  const cm = family.forestOnContinuum ? continuumMultiplier(ctx, s) : null;
-  if (cm) {
-    const n0 = data.flux.length;
-    let fwf = 0;
-    const pf = new Float64Array(P);
-    const pp = new Float64Array(P * P);
-    for (let i = 0; i < cm.last; i++) {
-      const wi = data.ivar[i];
-      if (!(wi > 0)) continue;
-      const d = cm.v[i] * cm.v[i] - 1;
-      const e = cm.v[i] - 1;
-      for (let a = 0; a < P; a++) {
-        pf[a] += wi * data.flux[i] * poly[a][i] * e;
-        for (let c = 0; c < P; c++) pp[a * P + c] += wi * poly[a][i] * poly[c][i] * d;
+  // zero below the Lyman limit (templates.ts, forestOnContinuum). The
+  // multiplier depends on s only through where the two edges fall, so the
+  // polynomial block's corrections are differences of prefix sums.
+  let iLl = 0;
+  let iLya = 0;
+  if (family.forestOnContinuum) {
+    const nPix = data.flux.length;
+    const kLya = Math.log10(LYA_A) / ctx.dlog10 + s;
+    const kLl = Math.log10(LL_A) / ctx.dlog10 + s;
+    iLya = Math.min(nPix, Math.max(0, Math.ceil(kLya - data.k0)));
+    iLl = Math.min(iLya, Math.max(0, Math.ceil(kLl - data.k0)));
+    const ps = forestPrefix(ctx);
+    const T = P * P;
+    for (let a = 0; a < P; a++) {
+      b[a] += ps.fAbs[iLl * P + a] + ps.fForest[iLya * P + a] - ps.fForest[iLl * P + a];
+      for (let c = 0; c < P; c++) {
+        const q = a * P + c;
+        M[a * n + c] += ps.pAbs[iLl * T + q] + ps.pForest[iLya * T + q] - ps.pForest[iLl * T + q];
       }
     }
-    void n0;
-    void fwf;
-    for (let a = 0; a < P; a++) {
-      b[a] += pf[a];
-      for (let c = 0; c < P; c++) M[a * n + c] += pp[a * P + c];
-    }
   }
+  const cmAt = (i: number) => (i < iLl ? 0 : i < iLya ? ctx.forestTrans[i] : 1);
   const cols: (Column | null)[] = [];
   for (let j = 0; j < K; j++) cols.push(column(ctx, family, j, s));
   const w = data.ivar;
@@ -166,13 +207,12 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
     pa.fill(0);
     const v = cj.v;
     const i0 = cj.i0;
-    const lastCm = cm ? cm.last : 0;
     for (let q = 0; q < v.length; q++) {
       const t = v[q];
       if (t === 0) continue;
       const i = i0 + q;
       bf += t * wf[i];
-      const tc = i < lastCm ? t * cm!.v[i] : t;
+      const tc = i < iLya ? t * cmAt(i) : t;
       for (let a = 0; a < P; a++) pa[a] += tc * wp[a][i];
     }
     b[r] = bf;

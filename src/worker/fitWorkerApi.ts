@@ -10,7 +10,7 @@ import type { FitResult, LineMeasurement, Spectrum, SpectrumClass } from '../cor
 import { SpectrumReadError } from '../core/types';
 import { fitBytes } from '../core/pipeline';
 import { readSpectrum } from '../core/io/readSpectrum';
-import { refitNear } from '../core/engine';
+import { refitNear, solutionModel } from '../core/engine';
 import { locateFeature, suggestLines, type LineSuggestion } from '../core/engine/identify';
 import { measureLines } from '../core/engine/measureLines';
 import { LruCache } from './lruCache';
@@ -41,6 +41,8 @@ export interface FitWorkerApi {
   nameFeature(key: string, clickA: number): FeatureAnswer | null;
   /** Gaussian line measurements at a redshift and class; null when the spectrum is not open. */
   measureLines(key: string, z: number, cls: SpectrumClass): LineMeasurement[] | null;
+  /** Best-fit model flux of a template family at z on the spectrum's own grid (NaN where undefined); null when not open. */
+  solutionModel(key: string, z: number, family: string): Float64Array | null;
 }
 
 /** Parsed spectra kept per worker (a few MB at most for 20,000-pixel spectra). */
@@ -109,6 +111,12 @@ export function createFitWorkerApi(cacheEntries = SPECTRUM_CACHE_ENTRIES): FitWo
       const spectrum = cache.get(key);
       if (!spectrum) return null;
       return measureLines(spectrum, z, cls);
+    },
+    solutionModel(key, z, family) {
+      const spectrum = cache.get(key);
+      if (!spectrum) return null;
+      const model = solutionModel(spectrum, z, family);
+      return transfer(model, [model.buffer as ArrayBuffer]);
     },
   };
 }

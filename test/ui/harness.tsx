@@ -30,6 +30,7 @@ export function fakeReview(over: Partial<ReviewApi> = {}): ReviewApi {
     refitNear: vi.fn(async (_key: string, z: number) => makeResult('refit', { z: z + 0.0001, zErr: 0.0002, class: 'galaxy' })),
     nameFeature: vi.fn(async () => ({ feature: null, suggestions: [] })),
     measureLines: vi.fn(async () => []),
+    solutionModel: vi.fn(async () => null),
     ...over,
   };
 }

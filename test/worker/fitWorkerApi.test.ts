@@ -50,6 +50,27 @@ describe('fit worker API', () => {
     expect(api.refitNear('a', 1)).toBeNull();
     expect(api.nameFeature('a', 5000)).toBeNull();
     expect(api.measureLines('a', 0, 'galaxy')).toBeNull();
+    expect(api.solutionModel('a', 0, 'galaxy-sf')).toBeNull();
+  });
+
+  it('gives the model of a solution on the spectrum\'s own grid, closer to the data at the true z', () => {
+    const api = createFitWorkerApi(2);
+    api.openSpectrum('k', 's.csv', textSpectrum());
+    const bytes = textSpectrum();
+    const text = new TextDecoder().decode(bytes).split('\n').slice(1);
+    const flux = text.map((l) => Number(l.split(',')[1]));
+    // The invented bump at 5000 A is H-beta (4862.68 A vacuum, reference sheet sec. 1) at z = 5000/4862.68 - 1.
+    const zTrue = 5000 / 4862.68 - 1;
+    const rms = (m: Float64Array) => {
+      let s = 0;
+      let n = 0;
+      for (let i = 0; i < m.length; i++) if (Number.isFinite(m[i])) (s += (m[i] - flux[i]) ** 2), n++;
+      return Math.sqrt(s / n);
+    };
+    const atTrue = api.solutionModel('k', zTrue, 'galaxy-sf')!;
+    const offTrue = api.solutionModel('k', zTrue + 0.01, 'galaxy-sf')!;
+    expect(atTrue).toHaveLength(800);
+    expect(rms(atTrue)).toBeLessThan(rms(offTrue));
   });
 
   it('a broken file gives its read error, and fitFile marks it failed', () => {

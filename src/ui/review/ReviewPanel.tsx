@@ -25,6 +25,7 @@ import {
   candidateSolution,
   nextGrade,
   refitSolution,
+  modelFamily,
   rejectDraft,
   solutionFromDecision,
   type DecisionDraft,
@@ -129,6 +130,23 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
     // The decision is read once per spectrum (and fit); later decisions come from this panel.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [key, session, review, fitted]);
+
+  // The model of the shown solution, drawn over the data.
+  const [model, setModel] = useState<Float64Array | null>(null);
+  const family = solution ? modelFamily(solution) : null;
+  const modelZ = solution?.z ?? NaN;
+  useEffect(() => {
+    setModel(null);
+    if (!family || !Number.isFinite(modelZ) || spec.kind !== 'ready') return;
+    const forKey = key;
+    let stale = false;
+    void review.solutionModel(key, modelZ, family).then((m) => {
+      if (!stale && alive.current === forKey) setModel(m);
+    });
+    return () => {
+      stale = true;
+    };
+  }, [family, modelZ, spec.kind, key, review]);
 
   // Measure lines for a solution that has none yet.
   useEffect(() => {
@@ -324,7 +342,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
             flux={spec.spectrum.flux}
             ivar={spec.spectrum.ivar}
             mask={spec.spectrum.mask}
-            model={null}
+            model={model}
             z={solution ? solution.z : null}
             markers={MARKERS_BY_CLASS[solution?.cls ?? 'unknown'] ?? MARKERS}
             skyRegions={SKY}

@@ -16,19 +16,27 @@ export interface Solution {
   lineId?: { id: string; observedA: number };
   /** Line measurements at this solution; null until measured. */
   lines: LineMeasurement[] | null;
+  /** Template family whose model is drawn over the data (when known). */
+  family?: string;
+}
+
+/** Family whose model to draw: the solution's own, else a typical one for its class. */
+export function modelFamily(s: Solution): string | null {
+  if (s.family) return s.family;
+  return s.cls === 'qso' ? 'qso' : s.cls === 'galaxy' ? 'galaxy-sf' : s.cls === 'star' ? 'star-G' : null;
 }
 
 /** The automatic best solution of a fit, or null when the fit failed. */
 export function autoSolution(result: FitResult): Solution | null {
   if (result.status !== 'ok' || !result.candidates.length) return null;
-  return { z: result.z, zErr: result.zErr, cls: result.class, howSet: 'auto', candidateIndex: 0, lines: result.lines };
+  return { z: result.z, zErr: result.zErr, cls: result.class, howSet: 'auto', candidateIndex: 0, lines: result.lines, family: result.candidates[0].family };
 }
 
 /** Solution from the i-th automatic candidate (lines measured later unless it is the best). */
 export function candidateSolution(result: FitResult, i: number): Solution | null {
   const c = result.candidates[i];
   if (!c) return null;
-  return { z: c.z, zErr: c.zErr, cls: c.class, howSet: i === 0 ? 'auto' : 'candidate', candidateIndex: i, lines: i === 0 ? result.lines : null };
+  return { z: c.z, zErr: c.zErr, cls: c.class, howSet: i === 0 ? 'auto' : 'candidate', candidateIndex: i, lines: i === 0 ? result.lines : null, family: c.family };
 }
 
 /** Solution restored from an earlier decision (not for rejections). */
@@ -45,6 +53,7 @@ export function solutionFromDecision(d: ReviewDecision, result: FitResult | null
     candidateIndex: sameAsAuto ? 0 : picked >= 0 ? picked : null,
     lineId: d.lineId,
     lines: sameAsAuto ? result!.lines : null,
+    family: sameAsAuto ? result!.candidates[0]?.family : picked >= 0 ? result!.candidates[picked].family : undefined,
   };
 }
 
@@ -59,6 +68,7 @@ export function refitSolution(refit: FitResult, howSet: HowSet, fallbackZ: numbe
     candidateIndex: null,
     lines: ok ? refit.lines : null,
   };
+  if (ok && refit.candidates[0]) s.family = refit.candidates[0].family;
   if (lineId) s.lineId = lineId;
   return s;
 }

@@ -380,8 +380,12 @@ export async function benchBrowser(options: BrowserBenchOptions = {}): Promise<v
     if (chrome) await (chrome as OwnChromium).close();
     await server.close();
     removeDir(tmp);
+    printTable(rows, log);
   }
+}
 
+function printTable(rows: readonly [string, string, string][], log: Log): void {
+  if (!rows.length) return;
   const w0 = Math.max(...rows.map((r) => r[0].length));
   const w1 = Math.max(...rows.map((r) => r[1].length));
   log('');

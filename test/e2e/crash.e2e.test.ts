@@ -153,6 +153,10 @@ describe.skipIf(!browserAvailable)('Chromium killed mid-review, and hostile name
       ]);
       await waitForFitting(page, 2);
       expect(await page.getByTestId('count-failed').textContent()).toBe('1 failed');
+      // The readable file was opened while it was still being fitted; its fit shows once it lands.
+      await expect.poll(() => page.getByTestId('review-title').textContent()).toBe(objectId);
+      await page.getByTestId('candidate-row').first().waitFor();
+      expect(await page.getByTestId('solution-z').textContent()).toMatch(/^\d\.\d{5}$/);
 
       const ids = await page.getByTestId('spectrum-row').locator('.c-id').allTextContents();
       expect(ids).toContain(objectId); // the object id from the header, as text

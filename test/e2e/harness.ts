@@ -170,7 +170,8 @@ export async function spawnChromium(userDataDir: string, timeoutMs = 30_000): Pr
     }
     if (!port) await sleep(50);
   }
-  const browser = await chromium.connectOverCDP(`http://127.0.0.1:${port}`);
+  // isLocal: same machine, so setInputFiles passes paths instead of copying the files (and their 50 MB limit).
+  const browser = await chromium.connectOverCDP(`http://127.0.0.1:${port}`, { isLocal: true });
   const context = browser.contexts()[0];
   await context.addInitScript({ content: PAGE_FUNCTION_SHIM });
   const killHard = async () => {

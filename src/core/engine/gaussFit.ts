@@ -22,6 +22,12 @@ const SQRT_2PI = Math.sqrt(2 * Math.PI);
 export const GAUSS_PARAM_NAMES = ['amplitude', 'centre', 'sigma', 'c0', 'c1'] as const;
 const NP = 5;
 
+/**
+ * A step counts as converged when every parameter moves by less than this
+ * fraction of its statistical error (far below anything measurable).
+ */
+const STEP_TOL = 1e-4;
+
 export interface GaussLineParams {
   /** Peak height above the continuum, y unit (negative for a trough). */
   amplitude: number;
@@ -136,11 +142,10 @@ function cholesky(a: Float64Array, n: number): boolean {
   return true;
 }
 
-/** Solve L L^T x = b with the factor from cholesky(). */
-function choleskySolve(l: Float64Array, n: number, b: ArrayLike<number>): Float64Array {
-  const x = Float64Array.from(b);
+/** Solve L L^T x = b with the factor from cholesky(), into x (may be b itself). */
+function choleskySolve(l: Float64Array, n: number, b: ArrayLike<number>, x: Float64Array): Float64Array {
   for (let i = 0; i < n; i++) {
-    let s = x[i];
+    let s = b[i];
     for (let k = 0; k < i; k++) s -= l[i * n + k] * x[k];
     x[i] = s / l[i * n + i];
   }
@@ -153,82 +158,140 @@ function choleskySolve(l: Float64Array, n: number, b: ArrayLike<number>): Float6
 }
 
 /**
- * Symmetric matrix inverse, or null when not positive definite. The matrix is
- * first equilibrated by its diagonal so that parameters of very different
- * scale (Angstrom, flux) do not spoil the factorisation.
+ * Symmetric matrix inverse into `out`, or false when not positive definite.
+ * The matrix is first equilibrated by its diagonal so that parameters of very
+ * different scale (Angstrom, flux) do not spoil the factorisation.
  */
-function inverseSpd(m: Float64Array, n: number): Float64Array | null {
-  const d = new Float64Array(n);
+function inverseSpdInto(m: Float64Array, n: number, out: Float64Array, work: Float64Array, d: Float64Array, e: Float64Array, col: Float64Array): boolean {
   for (let i = 0; i < n; i++) {
-    if (!(m[i * n + i] > 0)) return null;
+    if (!(m[i * n + i] > 0)) return false;
     d[i] = 1 / Math.sqrt(m[i * n + i]);
   }
-  const a = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) a[i * n + j] = m[i * n + j] * d[i] * d[j];
-  if (!cholesky(a, n)) return null;
-  const inv = new Float64Array(n * n);
-  const e = new Float64Array(n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) work[i * n + j] = m[i * n + j] * d[i] * d[j];
+  if (!cholesky(work, n)) return false;
   for (let j = 0; j < n; j++) {
     e.fill(0);
     e[j] = 1;
-    const col = choleskySolve(a, n, e);
-    for (let i = 0; i < n; i++) inv[i * n + j] = col[i] * d[i] * d[j];
+    choleskySolve(work, n, e, col);
+    for (let i = 0; i < n; i++) out[i * n + j] = col[i] * d[i] * d[j];
   }
-  return inv;
+  return true;
 }
+
+function inverseSpd(m: Float64Array, n: number): Float64Array | null {
+  const out = new Float64Array(n * n);
+  return inverseSpdInto(m, n, out, new Float64Array(n * n), new Float64Array(n), new Float64Array(n), new Float64Array(n)) ? out : null;
+}
+
+/**
+ * Beyond this many sigma the Gaussian is taken as 0 (exp(-32) ~ 1.3e-14 of
+ * the peak, far below any data precision): most pixels of a narrow line's
+ * window then cost no exponential.
+ */
+const GAUSS_CUT_SIGMA = 8;
 
 interface Points {
   x: Float64Array;
   y: Float64Array;
   w: Float64Array;
+  /** Scratch per point: Gaussian factor and (x - centre) / sigma at the last evaluated parameters. */
+  e: Float64Array;
+  t: Float64Array;
 }
 
 function usablePoints(x: ArrayLike<number>, y: ArrayLike<number>, w: ArrayLike<number>): Points {
-  const keep: number[] = [];
+  let n = 0;
+  for (let i = 0; i < x.length; i++) if (Number.isFinite(x[i]) && Number.isFinite(y[i]) && Number.isFinite(w[i]) && w[i] > 0) n++;
+  const pts = { x: new Float64Array(n), y: new Float64Array(n), w: new Float64Array(n), e: new Float64Array(n), t: new Float64Array(n) };
+  let j = 0;
   for (let i = 0; i < x.length; i++) {
-    if (Number.isFinite(x[i]) && Number.isFinite(y[i]) && Number.isFinite(w[i]) && w[i] > 0) keep.push(i);
+    if (!(Number.isFinite(x[i]) && Number.isFinite(y[i]) && Number.isFinite(w[i]) && w[i] > 0)) continue;
+    pts.x[j] = x[i];
+    pts.y[j] = y[i];
+    pts.w[j] = w[i];
+    j++;
   }
-  const pts = { x: new Float64Array(keep.length), y: new Float64Array(keep.length), w: new Float64Array(keep.length) };
-  keep.forEach((k, j) => {
-    pts.x[j] = x[k];
-    pts.y[j] = y[k];
-    pts.w[j] = w[k];
-  });
   return pts;
 }
 
-function chi2Of(pts: Points, p: ArrayLike<number>, xRef: number): number {
+/** chi2 at p; leaves the Gaussian factors and scaled offsets of p in e and t. */
+function chi2Of(pts: Points, p: ArrayLike<number>, xRef: number, e: Float64Array, t: Float64Array): number {
+  const { x, y, w } = pts;
+  const a = p[0], mu = p[1], inv = 1 / p[2], c0 = p[3], c1 = p[4];
   let c = 0;
-  for (let i = 0; i < pts.x.length; i++) {
-    const t = (pts.x[i] - p[1]) / p[2];
-    const r = pts.y[i] - (p[0] * Math.exp(-0.5 * t * t) + p[3] + p[4] * (pts.x[i] - xRef));
-    c += pts.w[i] * r * r;
+  for (let i = 0; i < x.length; i++) {
+    const u = (x[i] - mu) * inv;
+    const g = u < GAUSS_CUT_SIGMA && u > -GAUSS_CUT_SIGMA ? Math.exp(-0.5 * u * u) : 0;
+    e[i] = g;
+    t[i] = u;
+    const r = y[i] - (a * g + c0 + c1 * (x[i] - xRef));
+    c += w[i] * r * r;
   }
   return c;
 }
 
-/** Normal matrix J^T W J and gradient J^T W r at p. */
-function normalEquations(pts: Points, p: ArrayLike<number>, xRef: number): { h: Float64Array; g: Float64Array } {
-  const h = new Float64Array(NP * NP);
-  const g = new Float64Array(NP);
-  const jac = new Float64Array(NP);
-  for (let i = 0; i < pts.x.length; i++) {
-    const t = (pts.x[i] - p[1]) / p[2];
-    const e = Math.exp(-0.5 * t * t);
-    jac[0] = e;
-    jac[1] = (p[0] * e * t) / p[2];
-    jac[2] = (p[0] * e * t * t) / p[2];
-    jac[3] = 1;
-    jac[4] = pts.x[i] - xRef;
-    const r = pts.y[i] - (p[0] * e + p[3] + p[4] * jac[4]);
-    const w = pts.w[i];
-    for (let a = 0; a < NP; a++) {
-      g[a] += w * jac[a] * r;
-      for (let b = 0; b <= a; b++) h[a * NP + b] += w * jac[a] * jac[b];
-    }
+/**
+ * Normal matrix J^T W J and gradient J^T W r at p, from the Gaussian factors
+ * e and offsets t that chi2Of left for the same p.
+ */
+function normalEquations(pts: Points, p: ArrayLike<number>, xRef: number, e: Float64Array, t: Float64Array, h: Float64Array, g: Float64Array): void {
+  const { x, y, w } = pts;
+  const a = p[0], inv = 1 / p[2], c0 = p[3], c1 = p[4];
+  let h00 = 0, h10 = 0, h11 = 0, h20 = 0, h21 = 0, h22 = 0, h30 = 0, h31 = 0, h32 = 0, h33 = 0, h40 = 0, h41 = 0, h42 = 0, h43 = 0, h44 = 0;
+  let g0 = 0, g1 = 0, g2 = 0, g3 = 0, g4 = 0;
+  for (let i = 0; i < x.length; i++) {
+    const ei = e[i];
+    const dx = x[i] - xRef;
+    const wi = w[i];
+    const r = y[i] - (a * ei + c0 + c1 * dx);
+    const wr = wi * r;
+    g3 += wr;
+    g4 += wr * dx;
+    h33 += wi;
+    h43 += wi * dx;
+    h44 += wi * dx * dx;
+    if (ei === 0) continue;
+    const ti = t[i];
+    const j0 = ei;
+    const j1 = a * ei * ti * inv;
+    const j2 = j1 * ti;
+    const w0 = wi * j0, w1 = wi * j1, w2 = wi * j2;
+    g0 += w0 * r;
+    g1 += w1 * r;
+    g2 += w2 * r;
+    h00 += w0 * j0;
+    h10 += w1 * j0;
+    h11 += w1 * j1;
+    h20 += w2 * j0;
+    h21 += w2 * j1;
+    h22 += w2 * j2;
+    h30 += w0;
+    h31 += w1;
+    h32 += w2;
+    h40 += w0 * dx;
+    h41 += w1 * dx;
+    h42 += w2 * dx;
   }
-  for (let a = 0; a < NP; a++) for (let b = 0; b < a; b++) h[b * NP + a] = h[a * NP + b];
-  return { h, g };
+  h[0] = h00;
+  h[5] = h[1] = h10;
+  h[6] = h11;
+  h[10] = h[2] = h20;
+  h[11] = h[7] = h21;
+  h[12] = h22;
+  h[15] = h[3] = h30;
+  h[16] = h[8] = h31;
+  h[17] = h[13] = h32;
+  h[18] = h33;
+  h[20] = h[4] = h40;
+  h[21] = h[9] = h41;
+  h[22] = h[14] = h42;
+  h[23] = h[19] = h43;
+  h[24] = h44;
+  g[0] = g0;
+  g[1] = g1;
+  g[2] = g2;
+  g[3] = g3;
+  g[4] = g4;
 }
 
 function failed(reason: string, p: GaussLineParams, xRef: number, nUsed: number, iterations: number): GaussFitResult {
@@ -272,9 +335,24 @@ export function fitGaussLine(
   clamp(p);
   if (!p.every(Number.isFinite)) return failed('non-finite initial parameters', options.initial, xRef, n, 0);
 
-  let chi2 = chi2Of(pts, p, xRef);
+  let eCur: Float64Array = pts.e;
+  let tCur: Float64Array = pts.t;
+  let eTry: Float64Array = new Float64Array(n);
+  let tTry: Float64Array = new Float64Array(n);
+  let chi2 = chi2Of(pts, p, xRef, eCur, tCur);
   if (!Number.isFinite(chi2)) return failed('non-finite chi-square at the start', fromArray(p), xRef, n, 0);
-  let { h, g } = normalEquations(pts, p, xRef);
+  const h = new Float64Array(NP * NP);
+  const g = new Float64Array(NP);
+  normalEquations(pts, p, xRef, eCur, tCur, h, g);
+  const a = new Float64Array(NP * NP);
+  const rhs = new Float64Array(NP);
+  const trial = new Float64Array(NP);
+  const inv = new Float64Array(NP * NP);
+  const invWork = new Float64Array(NP * NP);
+  const d5 = new Float64Array(NP);
+  const e5 = new Float64Array(NP);
+  const col5 = new Float64Array(NP);
+  const step = new Float64Array(NP);
   // Damping update of Nielsen (1999, IMM-REP-1999-05, Tech. Univ. Denmark):
   // lambda follows the gain ratio rho = actual / predicted chi2 decrease, which
   // stops the zig-zag of plain x10 / /10 updates in flat, curved valleys.
@@ -286,11 +364,11 @@ export function fitGaussLine(
   while (iterations < maxIter) {
     iterations++;
     // Marquardt (1963): scale the damping by the diagonal of J^T W J.
-    const a = Float64Array.from(h);
+    a.set(h);
     for (let k = 0; k < NP; k++) a[k * NP + k] = h[k * NP + k] * (1 + lambda) + 1e-300;
     // Active set: a parameter on its bound whose downhill direction points out
     // of the box is held fixed for this step, so the others are solved without it.
-    const rhs = Float64Array.from(g);
+    rhs.set(g);
     for (let k = 0; k < NP; k++) {
       if ((p[k] <= lo[k] && g[k] < 0) || (p[k] >= hi[k] && g[k] > 0)) {
         for (let j = 0; j < NP; j++) a[k * NP + j] = a[j * NP + k] = 0;
@@ -304,11 +382,10 @@ export function fitGaussLine(
       if (lambda > 1e16) break;
       continue;
     }
-    const step = choleskySolve(a, NP, rhs);
-    const trial = Float64Array.from(p);
-    for (let k = 0; k < NP; k++) trial[k] += step[k];
+    choleskySolve(a, NP, rhs, step);
+    for (let k = 0; k < NP; k++) trial[k] = p[k] + step[k];
     clamp(trial);
-    const chi2Trial = chi2Of(pts, trial, xRef);
+    const chi2Trial = chi2Of(pts, trial, xRef, eTry, tTry);
     // Predicted decrease of the linearised chi2 for the (projected) step d: 2 d.g - d.H.d.
     let predicted = 0;
     for (let i = 0; i < NP; i++) {
@@ -322,15 +399,20 @@ export function fitGaussLine(
       // Converged when the step is negligible against each parameter's
       // statistical error (unscaled inverse normal matrix), or when the
       // chi2 decrease is far below anything statistically meaningful.
-      const inv = inverseSpd(h, NP);
-      let small = inv !== null;
+      let small = inverseSpdInto(h, NP, inv, invWork, d5, e5, col5);
       for (let k = 0; k < NP && small; k++) {
-        small = Math.abs(trial[k] - p[k]) <= 1e-7 * Math.sqrt(inv![k * NP + k]) + 1e-15 * Math.abs(p[k]);
+        small = Math.abs(trial[k] - p[k]) <= STEP_TOL * Math.sqrt(inv[k * NP + k]) + 1e-15 * Math.abs(p[k]);
       }
       const rho = drop / predicted;
       p.set(trial);
       chi2 = chi2Trial;
-      ({ h, g } = normalEquations(pts, p, xRef));
+      const eOld = eCur;
+      eCur = eTry;
+      eTry = eOld;
+      const tOld = tCur;
+      tCur = tTry;
+      tTry = tOld;
+      normalEquations(pts, p, xRef, eCur, tCur, h, g);
       lambda = Math.max(lambda * Math.max(1 / 3, 1 - (2 * rho - 1) ** 3), 1e-15);
       nu = 2;
       if (small || drop <= 1e-15 * chi2 || predicted <= 1e-12) {
@@ -352,14 +434,14 @@ export function fitGaussLine(
     }
   }
 
-  const inv = inverseSpd(h, NP);
-  if (!inv) return failed('singular normal matrix (parameters not constrained by the data)', fromArray(p), xRef, n, iterations);
+  const invFinal = inverseSpd(h, NP);
+  if (!invFinal) return failed('singular normal matrix (parameters not constrained by the data)', fromArray(p), xRef, n, iterations);
   if (!converged) return failed(`no convergence in ${maxIter} iterations`, fromArray(p), xRef, n, iterations);
 
   const dof = n - NP;
   const reducedChi2 = dof > 0 ? chi2 / dof : NaN;
   const scale = dof > 0 ? Math.max(1, reducedChi2) : 1;
-  const covariance = inv.map((v) => v * scale);
+  const covariance = invFinal.map((v) => v * scale);
   const errors = fromArray(Array.from({ length: NP }, (_, k) => Math.sqrt(covariance[k * NP + k])));
 
   let status: GaussFitStatus = 'converged';

@@ -9,11 +9,15 @@
  * - Doublets the catalogue lists as one blend ([O II], Mg II, C IV, Si IV) are
  *   fitted as one Gaussian; their centre depends on the component ratio.
  * - Neighbouring catalogue lines inside a window are masked, not fitted jointly.
+ * - A line with no matched-filter signal of its kind near the expected place
+ *   (S/N < FORCED_FIT_SNR) gets a forced measurement: flux at the expected
+ *   centre with a typical width; its centre error, own redshift and FWHM are
+ *   NaN (not measured) and it is never detected.
  */
 import type { LineMeasurement, Spectrum, SpectrumClass } from '../types';
 import { LINES, type CatalogueLine } from '../lines/catalogue';
 import { FWHM_PER_SIGMA, continuumAt, fitGaussLine, fittedFlux, propagateVariance, type GaussFitResult } from './gaussFit';
-import { bestFilterHitStrided, continuumValue, filterAt, fitClippedContinuum } from './lines/matchedFilter';
+import { bestFilterHitStrided, continuumValue, fitClippedContinuum } from './lines/matchedFilter';
 import { lowerIndex, pixelWidthAt, pixelWindow } from './lines/pixelWindow';
 
 /** Speed of light, km/s (exact, SI definition). */
@@ -155,12 +159,12 @@ function measureOne(s: Spectrum, z: number, p: PlannedLine, plan: readonly Plann
   // Starting Gaussian from a matched filter over the centre search range.
   const sigmas = profile.startFwhmKms.map((f) => Math.max(0.8 * pixA, ((f / C_KMS) * obsA) / FWHM_PER_SIGMA));
   // Strided search (tested against the exhaustive bestFilterHit): broad filters span hundreds of pixels.
-  let start = bestFilterHitStrided(win.xA, resid, w, kFrom, kTo, sigmas, sign as 1 | -1);
-  if (!start) {
-    const kPred = Math.min(win.xA.length - 1, lowerIndex(win.xA, obsA));
-    const h = filterAt(win.xA, resid, w, kPred, sigmas[1] ?? sigmas[0]);
-    const err = h.snr !== 0 ? Math.abs(h.amplitude / h.snr) : Math.abs(cont.coef[0]) * 1e-3 || 1e-3;
-    start = { ...h, amplitude: sign * err };
+  const start = bestFilterHitStrided(win.xA, resid, w, kFrom, kTo, sigmas, sign as 1 | -1);
+  // Nothing of the expected sign near the expected place: a free Gaussian
+  // would only chase noise (slowly), so measure the flux at the expected
+  // centre and a typical width instead (a forced fit, never a detection).
+  if (!start || sign * start.snr < FORCED_FIT_SNR) {
+    return forcedMeasurement(line, z, win.xA, win.y, w, obsA, sigmas[1] ?? sigmas[0]);
   }
 
   const fit = fitGaussLine(win.xA, win.y, w, {
@@ -170,6 +174,86 @@ function measureOne(s: Spectrum, z: number, p: PlannedLine, plan: readonly Plann
     sigmaBounds: [0.3 * pixA, halfA / 2],
   });
   return toMeasurement(line, z, fit, profile, pixelWidthAt(s, fit.params.centre || obsA));
+}
+
+/**
+ * Matched-filter S/N (of the expected sign) below which a line gets the forced
+ * measurement instead of a free Gaussian fit. Below 2 a free fit of a line
+ * reaching the detection S/N of 3 is mostly noise being chased; the forced
+ * flux is the honest number there (common practice for upper limits).
+ */
+export const FORCED_FIT_SNR = 2;
+
+/**
+ * Flux at a fixed centre and width: amplitude and straight continuum by
+ * weighted linear least squares, errors from the inverse normal matrix
+ * scaled by max(1, reduced chi2) as in the free fit. Centre, width and the
+ * line's own redshift are not measured (NaN); never detected.
+ */
+function forcedMeasurement(
+  line: CatalogueLine, z: number, xA: Float64Array, y: Float64Array, w: Float64Array, centreA: number, sigmaA: number,
+): LineMeasurement {
+  const base = { id: line.id, label: line.label, kind: line.kind, restA: line.restA, observedA: centreA, observedErrA: NaN, z: NaN, zErr: NaN, fwhmKms: NaN, fwhmErrKms: NaN, detected: false };
+  // Normal equations for [g, 1, x - centre].
+  let gg = 0, g1 = 0, gx = 0, s11 = 0, s1x = 0, sxx = 0, gy = 0, y1 = 0, yx = 0, yy = 0;
+  let n = 0;
+  const inv = 1 / sigmaA;
+  for (let k = 0; k < xA.length; k++) {
+    const wk = w[k];
+    if (!(wk > 0)) continue;
+    n++;
+    const dx = xA[k] - centreA;
+    const u = dx * inv;
+    const g = u < 8 && u > -8 ? Math.exp(-0.5 * u * u) : 0;
+    const yk = y[k];
+    gg += wk * g * g;
+    g1 += wk * g;
+    gx += wk * g * dx;
+    s11 += wk;
+    s1x += wk * dx;
+    sxx += wk * dx * dx;
+    gy += wk * g * yk;
+    y1 += wk * yk;
+    yx += wk * yk * dx;
+    yy += wk * yk * yk;
+  }
+  const C = invertSym3(gg, g1, gx, s11, s1x, sxx);
+  const nan = { flux: NaN, fluxErr: NaN, ewRestA: NaN, ewRestErrA: NaN, snr: NaN };
+  if (!C || n <= 3) return { ...base, ...nan };
+  const a = C[0] * gy + C[1] * y1 + C[2] * yx;
+  const c0 = C[1] * gy + C[4] * y1 + C[5] * yx;
+  const c1 = C[2] * gy + C[5] * y1 + C[8] * yx;
+  // chi2 = y'Wy - b.x at the least-squares solution.
+  const chi2 = Math.max(0, yy - (a * gy + c0 * y1 + c1 * yx));
+  const scale = Math.max(1, chi2 / (n - 3));
+  const k = sigmaA * Math.sqrt(2 * Math.PI);
+  const flux = a * k;
+  const fluxErr = Math.sqrt(C[0] * scale) * k;
+  let ewRestA = NaN;
+  let ewRestErrA = NaN;
+  if (c0 > 0) {
+    // EW = flux / c0 / (1 + z); first-order propagation over (a, c0).
+    ewRestA = flux / c0 / (1 + z);
+    const da = k / c0 / (1 + z);
+    const dc = -ewRestA / c0;
+    ewRestErrA = Math.sqrt(Math.max(0, scale * (da * da * C[0] + 2 * da * dc * C[1] + dc * dc * C[4])));
+  }
+  const sign = line.kind === 'emission' ? 1 : -1;
+  return { ...base, flux, fluxErr, ewRestA, ewRestErrA, snr: (sign * flux) / fluxErr };
+}
+
+/** Inverse of the symmetric 3x3 matrix [[a, b, c], [b, d, e], [c, e, f]] (row-major), or null when singular. */
+function invertSym3(a: number, b: number, c: number, d: number, e: number, f: number): number[] | null {
+  const A = d * f - e * e;
+  const B = c * e - b * f;
+  const Cc = b * e - c * d;
+  const det = a * A + b * B + c * Cc;
+  if (!(Math.abs(det) > 1e-300 * Math.max(1, Math.abs(a * d * f)))) return null;
+  const r = 1 / det;
+  const D = (a * f - c * c) * r;
+  const E = (b * c - a * e) * r;
+  const F = (a * d - b * b) * r;
+  return [A * r, B * r, Cc * r, B * r, D, E, Cc * r, E, F];
 }
 
 function toMeasurement(

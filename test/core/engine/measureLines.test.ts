@@ -66,6 +66,21 @@ describe('measureLines(spectrum, z, cls) on a synthetic galaxy at z = 0.3', () =
     }
   });
 
+  it('absent lines without a matched-filter signal get a forced measurement at the expected centre', () => {
+    // Not injected (GALAXY_FLUX): a free Gaussian would chase noise; the forced fit keeps centre and width fixed.
+    const forced = [...got.values()].filter((m) => !Object.hasOwn(GALAXY_FLUX, m.id) && Number.isNaN(m.fwhmKms));
+    expect(forced.length).toBeGreaterThanOrEqual(3);
+    for (const m of forced) {
+      expect(m.detected, m.id).toBe(false);
+      expect(m.observedA, m.id).toBeCloseTo((1 + Z) * m.restA, 9);
+      expect(m.z, m.id).toBeNaN();
+      expect(m.fluxErr, m.id).toBeGreaterThan(0);
+      // Pure noise there: the flux is consistent with zero (4 sigma, common practice).
+      expect(Math.abs(m.flux), m.id).toBeLessThan(4 * m.fluxErr);
+      expect(m.snr, m.id).toBeCloseTo(((m.kind === 'emission' ? 1 : -1) * m.flux) / m.fluxErr, 9);
+    }
+  });
+
   it('countDetectedFeatures counts the [O III] doublet and the H-alpha + [N II] blend once each', () => {
     const lines = [...got.values()];
     // [O II], H-beta, [O III] pair, H-alpha group = 4 (from the injected set).

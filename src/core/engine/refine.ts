@@ -4,9 +4,10 @@
  * the mean Lyman-alpha forest), the continuum polynomial, non-negative
  * amplitudes. Used only around the best few minima of the fast scan.
  */
-import { makeNnlsWork, nnlsNormal } from './linalg';
+import { makeNnlsWork, nnlsNormal, type NnlsWork } from './linalg';
 import { forestDepth } from './forest';
 import type { TemplateFamily } from './templates';
+import { DLOG10 } from './logGrid';
 import { PEAK_MARGIN_PIX, polyBasis, scanConstants, type ScanConstants, type ScanData } from './scan';
 
 /** Everything about one spectrum that the full-model evaluations share. */
@@ -33,7 +34,11 @@ export function makeRefineContext(data: ScanData, P: number, dlog10: number): Re
   const fd = new Float64Array(n);
   // Only wavelengths where the forest can matter (up to Ly-alpha at the largest quasar z of any family, 7.5x).
   const kMax = Math.log10(LYA_A * 8) / dlog10;
-  for (let i = 0; i < n && data.k0 + i <= kMax; i++) fd[i] = forestDepth(Math.pow(10, (data.k0 + i) * dlog10));
+  const table = dlog10 === DLOG10 ? forestTable(kMax) : null;
+  for (let i = 0; i < n && data.k0 + i <= kMax; i++) {
+    const k = data.k0 + i;
+    fd[i] = table && k >= 0 ? table[k] : forestDepth(Math.pow(10, k * dlog10));
+  }
   const poly = polyBasis(n, P);
   const wf = new Float64Array(n);
   const wp = poly.map(() => new Float64Array(n));
@@ -46,6 +51,17 @@ export function makeRefineContext(data: ScanData, P: number, dlog10: number): Re
   return { data, dlog10, P, poly, consts: scanConstants(data, P), forestDepth: fd, forestTrans: ft, cm: new Float64Array(n), wf, wp };
 }
 
+/** forestDepth at every absolute pixel k = 0 .. kMax of the shared grid (the same numbers, computed once per thread). */
+let forestTab: Float64Array | null = null;
+function forestTable(kMax: number): Float64Array {
+  const m = Math.floor(kMax) + 1;
+  if (!forestTab || forestTab.length < m) {
+    forestTab = new Float64Array(m);
+    for (let k = 0; k < m; k++) forestTab[k] = forestDepth(Math.pow(10, k * DLOG10));
+  }
+  return forestTab;
+}
+
 /** Prefix sums for the forest-modulated continuum (built once per spectrum, on first quasar use). */
 interface ForestPrefix {
   /** [(i) * P * P + a * P + c]: sum over pixels < i of w p_a p_c (F^2 - 1), and of -w p_a p_c. */
@@ -56,18 +72,32 @@ interface ForestPrefix {
   fAbs: Float64Array;
 }
 
-const prefixCache = new WeakMap<RefineContext, ForestPrefix>();
+/**
+ * One set of prefix buffers per thread, reused from spectrum to spectrum (they
+ * are large: (n + 1) P^2 numbers twice); `prefixOwner` says whose sums they hold.
+ */
+let prefixBuf: ForestPrefix | null = null;
+let prefixOwner: RefineContext | null = null;
 
 function forestPrefix(ctx: RefineContext): ForestPrefix {
-  let ps = prefixCache.get(ctx);
-  if (ps) return ps;
   const { P, poly, wf, wp } = ctx;
   const n = ctx.data.flux.length;
   const T = P * P;
-  const pForest = new Float64Array((n + 1) * T);
-  const pAbs = new Float64Array((n + 1) * T);
-  const fForest = new Float64Array((n + 1) * P);
-  const fAbs = new Float64Array((n + 1) * P);
+  if (prefixOwner === ctx && prefixBuf) return prefixBuf;
+  if (!prefixBuf || prefixBuf.pForest.length < (n + 1) * T || prefixBuf.fForest.length < (n + 1) * P) {
+    prefixBuf = {
+      pForest: new Float64Array((n + 1) * T),
+      pAbs: new Float64Array((n + 1) * T),
+      fForest: new Float64Array((n + 1) * P),
+      fAbs: new Float64Array((n + 1) * P),
+    };
+  }
+  const ps = prefixBuf;
+  const { pForest, pAbs, fForest, fAbs } = ps;
+  pForest.fill(0, 0, T);
+  pAbs.fill(0, 0, T);
+  fForest.fill(0, 0, P);
+  fAbs.fill(0, 0, P);
   for (let i = 0; i < n; i++) {
     const F = ctx.forestTrans[i];
     const d = F * F - 1;
@@ -84,8 +114,7 @@ function forestPrefix(ctx: RefineContext): ForestPrefix {
       }
     }
   }
-  ps = { pForest, pAbs, fForest, fAbs };
-  prefixCache.set(ctx, ps);
+  prefixOwner = ctx;
   return ps;
 }
 
@@ -157,12 +186,231 @@ export interface FullFit {
   active: boolean[];
 }
 
+/** A piece of a basis vector, with its modulation as a number (0 none, 1 forest depth, 2 forest transmission). */
+interface PieceGeom {
+  kStart: number;
+  values: Float64Array;
+  mod: 0 | 1 | 2;
+}
+
+/** Per basis vector: the non-zero rest span of all its pieces, the pieces, and its line centres as rest pixels (fractional). */
+interface VectorGeom {
+  lo: number;
+  hi: number;
+  pieces: PieceGeom[];
+  peaksPix: number[] | null;
+}
+
+const geomCache = new WeakMap<TemplateFamily, Map<number, VectorGeom[]>>();
+
+function vectorGeoms(family: TemplateFamily, dlog10: number): VectorGeom[] {
+  let byD = geomCache.get(family);
+  if (!byD) {
+    byD = new Map();
+    geomCache.set(family, byD);
+  }
+  let g = byD.get(dlog10);
+  if (!g) {
+    g = family.vectors.map((v) => {
+      let lo = Infinity;
+      let hi = -Infinity;
+      const pieces: PieceGeom[] = [];
+      for (const p of v.pieces) {
+        if (p.rest.lo > p.rest.hi) continue;
+        lo = Math.min(lo, p.rest.lo);
+        hi = Math.max(hi, p.rest.hi);
+        pieces.push({ kStart: p.rest.kStart, values: p.rest.values, mod: p.modulation === 'forestDepth' ? 1 : p.modulation === 'forestTransmission' ? 2 : 0 });
+      }
+      const peaks = v.pieces[0].rest.peaksA;
+      return { lo, hi, pieces, peaksPix: peaks ? peaks.map((pk) => Math.log10(pk) / dlog10) : null };
+    });
+    byD.set(dlog10, g);
+  }
+  return g;
+}
+
+/** Scratch columns shared by all evaluations (one fit at a time per thread). */
+let scratch: Float64Array[] = [];
+function scratchColumns(K: number, n: number): Float64Array[] {
+  if (scratch.length < K || scratch[0].length < n) {
+    const len = Math.max(n, scratch[0]?.length ?? 0);
+    scratch = Array.from({ length: Math.max(K, scratch.length) }, () => new Float64Array(len));
+  }
+  return scratch;
+}
+const workCache = new Map<number, NnlsWork>();
+function nnlsWorkOf(n: number): NnlsWork {
+  let w = workCache.get(n);
+  if (!w) {
+    w = makeNnlsWork(n);
+    workCache.set(n, w);
+  }
+  return w;
+}
+
+/**
+ * Column j at whole shift s written into v over [i0, i1] (data pixels); returns
+ * false when it touches no data pixel. Pixels outside [i0, i1] are left as they were.
+ */
+function fillColumn(ctx: RefineContext, g: VectorGeom, s: number, v: Float64Array, span: Int32Array): boolean {
+  const { data } = ctx;
+  const n = data.flux.length;
+  const i0 = Math.max(0, g.lo + s - data.k0);
+  const i1 = Math.min(n - 1, g.hi + s - data.k0);
+  if (!(i1 >= i0)) return false;
+  v.fill(0, i0, i1 + 1);
+  for (const p of g.pieces) {
+    const off = data.k0 - s - p.kStart;
+    const a = Math.max(i0, -off);
+    const b = Math.min(i1, p.values.length - 1 - off);
+    const vals = p.values;
+    if (p.mod === 0) for (let i = a; i <= b; i++) v[i] += vals[i + off];
+    else {
+      const m = p.mod === 1 ? ctx.forestDepth : ctx.forestTrans;
+      for (let i = a; i <= b; i++) v[i] += vals[i + off] * m[i];
+    }
+  }
+  span[0] = i0;
+  span[1] = i1;
+  return true;
+}
+
 /**
  * Chi-square of the full model at shift s. With `fixedActive`, the template
  * set is fixed and solved without constraints (for a smooth curvature).
+ * Sums over each column's non-zero span (evaluateFullSlow: the same numbers
+ * from explicit columns, kept for tests).
  */
 export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: number, fixedActive?: boolean[]): FullFit {
-  const { data, P, poly, consts } = ctx;
+  if (s !== Math.floor(s)) return evaluateFullSlow(ctx, family, s, fixedActive);
+  const { data, P, consts } = ctx;
+  const K = family.vectors.length;
+  const n = P + K;
+  const nPix = data.flux.length;
+  const M = new Float64Array(n * n);
+  const b = new Float64Array(n);
+  for (let a = 0; a < P; a++) {
+    b[a] = consts.pf[a];
+    for (let c = 0; c < P; c++) M[a * n + c] = consts.pp[a * P + c];
+  }
+  // Quasars: continuum times the mean forest transmission blueward of Ly-alpha,
+  // zero below the Lyman limit (templates.ts, forestOnContinuum); see polyForestCorrection.
+  let iLl = 0;
+  let iLya = 0;
+  if (family.forestOnContinuum) [iLl, iLya] = polyForestCorrection(ctx, s, M, b, n);
+  const geoms = vectorGeoms(family, ctx.dlog10);
+  const cols = scratchColumns(K, nPix);
+  const spans = new Int32Array(2 * K);
+  const has = new Uint8Array(K);
+  const span = new Int32Array(2);
+  for (let j = 0; j < K; j++) {
+    if (!fillColumn(ctx, geoms[j], s, cols[j], span)) continue;
+    has[j] = 1;
+    spans[2 * j] = span[0];
+    spans[2 * j + 1] = span[1];
+  }
+  const w = data.ivar;
+  const { wf, wp, forestTrans } = ctx;
+  for (let j = 0; j < K; j++) {
+    if (!has[j]) continue;
+    const v = cols[j];
+    const i0 = spans[2 * j];
+    const i1 = spans[2 * j + 1];
+    const r = P + j;
+    let bf = 0;
+    for (let i = i0; i <= i1; i++) bf += v[i] * wf[i];
+    b[r] = bf;
+    // Polynomial cross terms: the continuum multiplier is 0 below iLl, F in [iLl, iLya), 1 above.
+    const f0 = Math.max(i0, iLl);
+    const f1 = Math.min(i1 + 1, iLya);
+    const u0 = Math.max(i0, iLya);
+    for (let a = 0; a < P; a++) {
+      const wpa = wp[a];
+      let sum = 0;
+      for (let i = f0; i < f1; i++) sum += v[i] * forestTrans[i] * wpa[i];
+      for (let i = u0; i <= i1; i++) sum += v[i] * wpa[i];
+      M[r * n + a] = sum;
+      M[a * n + r] = sum;
+    }
+    for (let k = j; k < K; k++) {
+      if (!has[k]) continue;
+      const from = Math.max(i0, spans[2 * k]);
+      const to = Math.min(i1, spans[2 * k + 1]);
+      const vk = cols[k];
+      let sum = 0;
+      for (let i = from; i <= to; i++) sum += w[i] * v[i] * vk[i];
+      M[r * n + P + k] = sum;
+      M[(P + k) * n + r] = sum;
+    }
+  }
+  // An emission vector counts only when one of its line centres is inside the data.
+  for (let j = 0; j < K; j++) {
+    const pk = geoms[j].peaksPix;
+    if (!pk || !has[j]) continue;
+    let inside = false;
+    for (const kp of pk) {
+      const i = kp + s - data.k0;
+      if (i >= PEAK_MARGIN_PIX && i <= nPix - 1 - PEAK_MARGIN_PIX) inside = true;
+    }
+    if (!inside) M[(P + j) * n + P + j] = 0;
+  }
+  return solveFull(ctx, family, s, M, b, fixedActive);
+}
+
+/**
+ * Forest corrections of the polynomial block of the normal equations at
+ * shift s (added into M and b, size n): the multiplier depends on s only
+ * through where the Lyman limit and Ly-alpha fall, so they are differences
+ * of prefix sums. Returns [iLl, iLya], the first data pixels at or above each.
+ */
+function polyForestCorrection(ctx: RefineContext, s: number, M: Float64Array, b: Float64Array, n: number): [number, number] {
+  const { data, P } = ctx;
+  const nPix = data.flux.length;
+  const kLya = Math.log10(LYA_A) / ctx.dlog10 + s;
+  const kLl = Math.log10(LL_A) / ctx.dlog10 + s;
+  const iLya = Math.min(nPix, Math.max(0, Math.ceil(kLya - data.k0)));
+  const iLl = Math.min(iLya, Math.max(0, Math.ceil(kLl - data.k0)));
+  const ps = forestPrefix(ctx);
+  const T = P * P;
+  for (let a = 0; a < P; a++) {
+    b[a] += ps.fAbs[iLl * P + a] + ps.fForest[iLya * P + a] - ps.fForest[iLl * P + a];
+    for (let c = 0; c < P; c++) {
+      const q = a * P + c;
+      M[a * n + c] += ps.pAbs[iLl * T + q] + ps.pForest[iLya * T + q] - ps.pForest[iLl * T + q];
+    }
+  }
+  return [iLl, iLya];
+}
+
+function solveFull(ctx: RefineContext, family: TemplateFamily, s: number, M: Float64Array, b: Float64Array, fixedActive?: boolean[]): FullFit {
+  const { P, consts } = ctx;
+  const K = family.vectors.length;
+  const n = P + K;
+  const tiny = 1e-10 * Math.max(consts.sumW, 1e-300);
+  const x = new Float64Array(n);
+  const work = nnlsWorkOf(n);
+  let explained: number;
+  if (fixedActive) {
+    const usable = (j: number) => j < P || (fixedActive[j - P] && M[j * n + j] > tiny);
+    explained = nnlsNormal(M, b, n, n, usable, x, work);
+  } else {
+    explained = nnlsNormal(M, b, n, P, (j) => j < P || M[j * n + j] > tiny, x, work);
+  }
+  const active: boolean[] = [];
+  let nPar = P;
+  for (let j = 0; j < K; j++) {
+    active.push(x[P + j] !== 0);
+    if (x[P + j] !== 0) nPar++;
+  }
+  return { shift: s, chi2: consts.fwf - explained, dof: Math.max(1, consts.nGood - nPar), x, active };
+}
+
+/**
+ * The same chi-square from explicit columns (column(); also fractional
+ * shifts, for model curves at a refined z). Slow; the reference for tests.
+ */
+export function evaluateFullSlow(ctx: RefineContext, family: TemplateFamily, s: number, fixedActive?: boolean[]): FullFit {
+  const { data, P, consts } = ctx;
   const K = family.vectors.length;
   const n = P + K;
   const M = new Float64Array(n * n);
@@ -171,28 +419,9 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
     b[a] = consts.pf[a];
     for (let c = 0; c < P; c++) M[a * n + c] = consts.pp[a * P + c];
   }
-  // Quasars: continuum times the mean forest transmission blueward of Ly-alpha,
-  // zero below the Lyman limit (templates.ts, forestOnContinuum). The
-  // multiplier depends on s only through where the two edges fall, so the
-  // polynomial block's corrections are differences of prefix sums.
   let iLl = 0;
   let iLya = 0;
-  if (family.forestOnContinuum) {
-    const nPix = data.flux.length;
-    const kLya = Math.log10(LYA_A) / ctx.dlog10 + s;
-    const kLl = Math.log10(LL_A) / ctx.dlog10 + s;
-    iLya = Math.min(nPix, Math.max(0, Math.ceil(kLya - data.k0)));
-    iLl = Math.min(iLya, Math.max(0, Math.ceil(kLl - data.k0)));
-    const ps = forestPrefix(ctx);
-    const T = P * P;
-    for (let a = 0; a < P; a++) {
-      b[a] += ps.fAbs[iLl * P + a] + ps.fForest[iLya * P + a] - ps.fForest[iLl * P + a];
-      for (let c = 0; c < P; c++) {
-        const q = a * P + c;
-        M[a * n + c] += ps.pAbs[iLl * T + q] + ps.pForest[iLya * T + q] - ps.pForest[iLl * T + q];
-      }
-    }
-  }
+  if (family.forestOnContinuum) [iLl, iLya] = polyForestCorrection(ctx, s, M, b, n);
   const cmAt = (i: number) => (i < iLl ? 0 : i < iLya ? ctx.forestTrans[i] : 1);
   const cols: (Column | null)[] = [];
   for (let j = 0; j < K; j++) cols.push(column(ctx, family, j, s));
@@ -212,7 +441,7 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
       if (t === 0) continue;
       const i = i0 + q;
       bf += t * wf[i];
-      const tc = i < iLya ? t * cmAt(i) : t;
+      const tc = t * cmAt(i);
       for (let a = 0; a < P; a++) pa[a] += tc * wp[a][i];
     }
     b[r] = bf;
@@ -233,7 +462,6 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
       M[(P + k) * n + r] = sum;
     }
   }
-  const tiny = 1e-10 * Math.max(consts.sumW, 1e-300);
   // An emission vector counts only when one of its line centres is inside the data.
   for (let j = 0; j < K; j++) {
     const peaks = family.vectors[j].pieces[0].rest.peaksA;
@@ -245,22 +473,7 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
     });
     if (!inside) M[(P + j) * n + P + j] = 0;
   }
-  const x = new Float64Array(n);
-  const work = makeNnlsWork(n);
-  let explained: number;
-  if (fixedActive) {
-    const usable = (j: number) => j < P || (fixedActive[j - P] && M[j * n + j] > tiny);
-    explained = nnlsNormal(M, b, n, n, usable, x, work);
-  } else {
-    explained = nnlsNormal(M, b, n, P, (j) => j < P || M[j * n + j] > tiny, x, work);
-  }
-  const active: boolean[] = [];
-  let nPar = P;
-  for (let j = 0; j < K; j++) {
-    active.push(x[P + j] !== 0);
-    if (x[P + j] !== 0) nPar++;
-  }
-  return { shift: s, chi2: consts.fwf - explained, dof: Math.max(1, consts.nGood - nPar), x, active };
+  return solveFull(ctx, family, s, M, b, fixedActive);
 }
 
 /** Rest Ly-alpha and the Lyman limit, Angstrom (catalogue). */

@@ -38,9 +38,22 @@ export interface ScanSums {
 
 /**
  * Legendre polynomials P_0 .. P_(P-1) of x in [-1, 1] across the data pixels
- * (well conditioned for the continuum terms).
+ * (well conditioned for the continuum terms). Shared arrays: never modify them.
  */
 export function polyBasis(n: number, P: number): Float64Array[] {
+  const key = n * 64 + P;
+  const hit = polyCache.get(key);
+  if (hit) return hit;
+  const out = legendreBasis(n, P);
+  if (polyCache.size >= 16) polyCache.delete(polyCache.keys().next().value as number);
+  polyCache.set(key, out);
+  return out;
+}
+
+/** polyBasis results by (n, P): they depend on nothing else, and every stage of a fit asks for them. Read-only. */
+const polyCache = new Map<number, Float64Array[]>();
+
+function legendreBasis(n: number, P: number): Float64Array[] {
   const out: Float64Array[] = [];
   for (let a = 0; a < P; a++) out.push(new Float64Array(n));
   for (let i = 0; i < n; i++) {

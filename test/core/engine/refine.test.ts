@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { evaluateFull, makeRefineContext } from '../../../src/core/engine/refine';
+import { evaluateFull, evaluateFullSlow, makeRefineContext } from '../../../src/core/engine/refine';
 import { polyBasis, type ScanData } from '../../../src/core/engine/scan';
 import { templateFamilies } from '../../../src/core/engine/templates';
 import { valueAt } from '../../../src/core/engine/restArray';
@@ -76,6 +76,32 @@ describe('evaluateFull (quasar, forest on the continuum by prefix sums)', () => 
       const slow = slowChi2(data, P, s, K);
       // round-off only (keep-the-slow-version rule)
       expect(Math.abs(fast - slow) / slow).toBeLessThan(1e-9);
+    }
+  });
+});
+
+describe('evaluateFull (scratch columns over their spans) against evaluateFullSlow (explicit columns)', () => {
+  it('gives the same chi2 and amplitudes for every family at shifts across its range', () => {
+    const rng = makeRng(5);
+    const n = 3000;
+    const k0 = Math.round(Math.log10(3800) / DLOG10);
+    const data: ScanData = {
+      k0,
+      flux: Float64Array.from({ length: n }, () => 1 + 0.3 * rng.gauss()),
+      ivar: Float64Array.from({ length: n }, () => (rng.next() < 0.05 ? 0 : 0.5 + rng.next())),
+    };
+    const ctx = makeRefineContext(data, 5, DLOG10);
+    for (const fam of templateFamilies()) {
+      const lo = Math.ceil(Math.log10(1 + fam.zMin) / DLOG10);
+      const hi = Math.floor(Math.log10(1 + fam.zMax) / DLOG10);
+      for (let t = 0; t < 6; t++) {
+        const s = lo + Math.floor(rng.next() * (hi - lo + 1));
+        const a = evaluateFull(ctx, fam, s);
+        const b = evaluateFullSlow(ctx, fam, s);
+        // same sums in another order: round-off only (keep-the-slow-version rule)
+        expect(Math.abs(a.chi2 - b.chi2) / b.chi2, `${fam.id} s=${s}`).toBeLessThan(1e-10);
+        expect(a.active, `${fam.id} s=${s}`).toEqual(b.active);
+      }
     }
   });
 });

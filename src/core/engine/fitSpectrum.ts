@@ -22,7 +22,7 @@ import { binLogSpectrum } from './resample';
 import { fineData } from './fineData';
 import { withFloor } from './errorFloor';
 import { binRest, type RestArray } from './restArray';
-import { dataSpectra, fftSizeFor, scanConstants, scanSmall, scanFFT, type DataSpectra, type ScanConstants, type ScanData } from './scan';
+import { dataSpectra, fftSizeFor, scanConstants, scanSmall, scanFFT, weightedOrthonormalBasis, type DataSpectra, type ScanConstants, type ScanData } from './scan';
 import { TEMPLATE_SET_ID, templateFamilies, type TemplateFamily } from './templates';
 import { ENGINE_VERSION } from './version';
 
@@ -124,11 +124,17 @@ function prepare(spectrum: Spectrum, options: FitOptions): Prepared | string {
     }
     return d;
   };
+  // Per binning: the continuum polynomials orthonormal under the weights (scan.ts), and the shift-free sums.
+  const basisCache = new Map<number, Float64Array[] | undefined>();
+  const basisAt = (b: number): Float64Array[] | undefined => {
+    if (!basisCache.has(b)) basisCache.set(b, P > 0 ? (weightedOrthonormalBasis(dataAt(b), P) ?? undefined) : undefined);
+    return basisCache.get(b);
+  };
   const constCache = new Map<number, ScanConstants>();
   const constsAt = (b: number): ScanConstants => {
     let c = constCache.get(b);
     if (!c) {
-      c = scanConstants(dataAt(b), P);
+      c = scanConstants(dataAt(b), P, basisAt(b));
       constCache.set(b, c);
     }
     return c;
@@ -148,14 +154,14 @@ function prepare(spectrum: Spectrum, options: FitOptions): Prepared | string {
     const data = dataAt(b);
     if (sHi - sLo + 1 <= DIRECT_SCAN_MAX_SHIFTS) {
       // Stars: a few shifts; direct sums beat FFTs of the whole spectrum.
-      const r = scanSmall(data, binnedScanVectors(family), sLo, sHi, P, DLOG10 * b, constsAt(b));
+      const r = scanSmall(data, binnedScanVectors(family), sLo, sHi, P, DLOG10 * b, constsAt(b), basisAt(b));
       scans.push({ family, lo, hi, binning: b, sMin: sLo, chi2: r.chi2, chi2Poly: polyOnlyChi2(constsAt(b), P) });
       continue;
     }
     const L = fftSizeFor(data.flux.length, sHi - sLo + 1);
     let ds = dsCache.get(`${b}|${L}`);
     if (!ds) {
-      ds = dataSpectra(data, P, L);
+      ds = dataSpectra(data, P, L, basisAt(b));
       dsCache.set(`${b}|${L}`, ds);
     }
     const r = scanFFT(data, binnedScanVectors(family), sLo, sHi, P, `${family.id}@${b}`, ds, DLOG10 * b, constsAt(b));

@@ -73,6 +73,61 @@ function legendreBasis(n: number, P: number): Float64Array[] {
   return out;
 }
 
+/**
+ * The continuum polynomials made orthonormal under the data weights
+ * (sum_i w_i q_a(i) q_b(i) = delta_ab; Gram-Schmidt via the Cholesky factor of
+ * the Legendre Gram matrix G = L L^T, q = L^-1 p). They span the same space as
+ * polyBasis, so every chi2 is unchanged, but the polynomial block of the normal
+ * equations is the identity and drops out of the per-shift solve.
+ * q_0 is a constant. null when G is singular (too few good pixels).
+ */
+export function weightedOrthonormalBasis(data: ScanData, P: number): Float64Array[] | null {
+  const n = data.flux.length;
+  const p = polyBasis(n, P);
+  const G = new Float64Array(P * P);
+  for (let i = 0; i < n; i++) {
+    const w = data.ivar[i];
+    if (!(w > 0)) continue;
+    for (let a = 0; a < P; a++) {
+      const wa = w * p[a][i];
+      for (let b = 0; b <= a; b++) G[a * P + b] += wa * p[b][i];
+    }
+  }
+  // Cholesky G = L L^T (lower triangle of G holds the sums).
+  const L = new Float64Array(P * P);
+  for (let a = 0; a < P; a++) {
+    for (let b = 0; b <= a; b++) {
+      let v = G[a * P + b];
+      for (let k = 0; k < b; k++) v -= L[a * P + k] * L[b * P + k];
+      if (a === b) {
+        if (!(v > 1e-12 * G[a * P + a])) return null;
+        L[a * P + a] = Math.sqrt(v);
+      } else L[a * P + b] = v / L[b * P + b];
+    }
+  }
+  // q_a = (p_a - sum_{b<a} L_ab q_b) / L_aa (forward substitution, row by row).
+  const q: Float64Array[] = [];
+  for (let a = 0; a < P; a++) {
+    const qa = Float64Array.from(p[a]);
+    for (let b = 0; b < a; b++) {
+      const l = L[a * P + b];
+      const qb = q[b];
+      for (let i = 0; i < n; i++) qa[i] -= l * qb[i];
+    }
+    const inv = 1 / L[a * P + a];
+    for (let i = 0; i < n; i++) qa[i] *= inv;
+    q.push(qa);
+  }
+  return q;
+}
+
+/** The constant of basis[0] when it is constant and non-zero (then sum w t t comes from the w q_0 spectrum), else NaN. */
+function constantOf(b: Float64Array): number {
+  const c = b[0];
+  for (let i = 1; i < b.length; i++) if (b[i] !== c) return NaN;
+  return c !== 0 ? c : NaN;
+}
+
 function overlaps(a: RestArray, b: RestArray): boolean {
   return a.lo <= a.hi && b.lo <= b.hi && a.lo <= b.hi && b.lo <= a.hi;
 }
@@ -99,12 +154,12 @@ function emptySums(sMin: number, nShift: number, K: number, P: number, vectors: 
 }
 
 /** The slow obvious sums (for tests and tiny ranges). */
-export function scanSumsDirect(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number): ScanSums {
+export function scanSumsDirect(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, basis?: Float64Array[]): ScanSums {
   const n = data.flux.length;
   const K = vectors.length;
   const nShift = sMax - sMin + 1;
   const sums = emptySums(sMin, nShift, K, P, vectors);
-  const poly = polyBasis(n, P);
+  const poly = basis ?? polyBasis(n, P);
   for (let si = 0; si < nShift; si++) {
     const s = sMin + si;
     for (let i = 0; i < n; i++) {
@@ -131,16 +186,18 @@ export function scanSumsDirect(data: ScanData, vectors: RestArray[], sMin: numbe
  * overlap of each vector with the data: O(nShift * n * K) with no FFT.
  * Tested against scanSumsDirect.
  */
-export function scanSumsSmall(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number): ScanSums {
+export function scanSumsSmall(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, basis?: Float64Array[]): ScanSums {
   const n = data.flux.length;
   const K = vectors.length;
   const nShift = sMax - sMin + 1;
   const sums = emptySums(sMin, nShift, K, P, vectors);
-  const poly = polyBasis(n, P);
+  const poly = basis ?? polyBasis(n, P);
   const wf = new Float64Array(n);
+  const wOnly = new Float64Array(n);
   const wp = poly.map(() => new Float64Array(n));
   for (let i = 0; i < n; i++) {
     const w = data.ivar[i] > 0 ? data.ivar[i] : 0;
+    wOnly[i] = w;
     wf[i] = w * data.flux[i];
     for (let a = 0; a < P; a++) wp[a][i] = w * poly[a][i];
   }
@@ -170,10 +227,8 @@ export function scanSumsSmall(data: ScanData, vectors: RestArray[], sMin: number
         const offq = data.k0 - s - u.kStart;
         const a0 = Math.max(i0, u.lo - data.k0 + s);
         const a1 = Math.min(i1, u.hi - data.k0 + s);
-        const w0 = wp[0];
         let t = 0;
-        // p_0 = 1, so w p_0 is the weight itself
-        for (let i = a0; i <= a1; i++) t += w0[i] * vals[i + off] * u.values[i + offq];
+        for (let i = a0; i <= a1; i++) t += wOnly[i] * vals[i + off] * u.values[i + offq];
         dest[si] = t;
       }
     }
@@ -256,19 +311,29 @@ export interface DataSpectra {
   L: number;
   wf: HalfSpectrum;
   wp: HalfSpectrum[];
+  /** Spectrum of the weights alone (for sum w t_j t_k). */
+  w: HalfSpectrum;
 }
 
-export function dataSpectra(data: ScanData, P: number, L: number): DataSpectra {
+export function dataSpectra(data: ScanData, P: number, L: number, basis?: Float64Array[]): DataSpectra {
   const plan = planOf(L);
   const n = data.flux.length;
-  const poly = polyBasis(n, P);
+  const poly = basis ?? polyBasis(n, P);
   const signals: Float64Array[] = [];
   const wf = new Float64Array(n);
   for (let i = 0; i < n; i++) wf[i] = data.ivar[i] > 0 ? data.ivar[i] * data.flux[i] : 0;
   signals.push(wf);
   for (let a = 0; a < P; a++) {
     const s = new Float64Array(n);
-    for (let i = 0; i < n; i++) s[i] = data.ivar[i] > 0 ? data.ivar[i] * poly[a][i] : 0;
+    const pa = poly[a];
+    for (let i = 0; i < n; i++) s[i] = data.ivar[i] > 0 ? data.ivar[i] * pa[i] : 0;
+    signals.push(s);
+  }
+  // The weights' spectrum: w q_0 scaled when q_0 is a constant, else its own transform.
+  const c0 = P > 0 ? constantOf(poly[0]) : NaN;
+  if (!(c0 === c0)) {
+    const s = new Float64Array(n);
+    for (let i = 0; i < n; i++) s[i] = data.ivar[i] > 0 ? data.ivar[i] : 0;
     signals.push(s);
   }
   const spectra: HalfSpectrum[] = [];
@@ -277,7 +342,13 @@ export function dataSpectra(data: ScanData, P: number, L: number): DataSpectra {
     spectra.push(A);
     if (i + 1 < signals.length) spectra.push(B);
   }
-  return { L, wf: spectra[0], wp: spectra.slice(1, 1 + P) };
+  let w: HalfSpectrum;
+  if (c0 === c0) {
+    w = new Float64Array(spectra[1].length);
+    const inv = 1 / c0;
+    for (let k = 0; k < w.length; k++) w[k] = spectra[1][k] * inv;
+  } else w = spectra[1 + P];
+  return { L, wf: spectra[0], wp: spectra.slice(1, 1 + P), w };
 }
 
 /** FFT size needed for a scan of nShift shifts over n data pixels. */
@@ -290,14 +361,14 @@ export function fftSizeFor(n: number, nShift: number): number {
  * must always mean the same vectors). `ds` may be passed in to share data
  * spectra between families; it must have been made with the same P and size.
  */
-export function scanSumsFFT(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, key: string, ds?: DataSpectra): ScanSums {
+export function scanSumsFFT(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, key: string, ds?: DataSpectra, basis?: Float64Array[]): ScanSums {
   const n = data.flux.length;
   const K = vectors.length;
   const nShift = sMax - sMin + 1;
   const L = ds?.L ?? fftSizeFor(n, nShift);
   if (L < n + nShift + SEGMENT_BLOCK - 1) throw new Error('scanSumsFFT: FFT size too small for the range');
   const plan = planOf(L);
-  const d = ds ?? dataSpectra(data, P, L);
+  const d = ds ?? dataSpectra(data, P, L, basis);
   const R0 = Math.floor((data.k0 - sMax) / SEGMENT_BLOCK) * SEGMENT_BLOCK;
   const ts = templateSpectra(key, vectors, R0, plan);
   const sums = emptySums(sMin, nShift, K, P, vectors);
@@ -311,10 +382,9 @@ export function scanSumsFFT(data: ScanData, vectors: RestArray[], sMin: number, 
     for (let q = j; q < K; q++) {
       const prod = ts.products[j * K + q];
       const dest = sums.tt[j * K + q];
-      if (prod && dest && reaches(vectors[q], data, sMin, sMax)) jobs.push({ X: d.wp[0], Y: prod, dest });
+      if (prod && dest && reaches(vectors[q], data, sMin, sMax)) jobs.push({ X: d.w, Y: prod, dest });
     }
   }
-  // p_0 = 1, so sum w t_j t_k uses the w p_0 spectrum.
   const out1 = new Float64Array(L);
   const out2 = new Float64Array(L);
   const mAt0 = data.k0 - sMin - R0; // m for s = sMin; m decreases by 1 per shift
@@ -340,11 +410,13 @@ export interface ScanConstants {
   nGood: number;
   /** sum w (sets the scale below which a template column counts as empty) */
   sumW: number;
+  /** pp is the identity (to 1e-9): a weighted-orthonormal basis, no inverse needed. */
+  orthonormal?: boolean;
 }
 
-export function scanConstants(data: ScanData, P: number): ScanConstants {
+export function scanConstants(data: ScanData, P: number, basis?: Float64Array[]): ScanConstants {
   const n = data.flux.length;
-  const poly = polyBasis(n, P);
+  const poly = basis ?? polyBasis(n, P);
   let fwf = 0;
   let nGood = 0;
   let sumW = 0;
@@ -362,7 +434,9 @@ export function scanConstants(data: ScanData, P: number): ScanConstants {
       for (let b = 0; b < P; b++) pp[a * P + b] += w * poly[a][i] * poly[b][i];
     }
   }
-  return { fwf, pf, pp, nGood, sumW };
+  let orthonormal = P > 0;
+  for (let a = 0; a < P; a++) for (let b = 0; b < P; b++) if (Math.abs(pp[a * P + b] - (a === b ? 1 : 0)) > 1e-9) orthonormal = false;
+  return { fwf, pf, pp, nGood, sumW, orthonormal };
 }
 
 export interface ScanResult {
@@ -377,6 +451,7 @@ export interface ScanResult {
 export function chi2FromSums(sums: ScanSums, c: ScanConstants, allowed?: (Uint8Array | null)[]): ScanResult {
   const { K, P } = sums;
   if (K <= MAX_K && P > 0) {
+    if (c.orthonormal) return chi2Ortho(sums, c, allowed);
     const H = invertSmall(c.pp, P);
     if (H) return chi2Schur(sums, c, H, allowed);
   }
@@ -458,6 +533,58 @@ function chi2Schur(sums: ScanSums, c: ScanConstants, H: Float64Array, allowed?: 
   return { sMin: sums.sMin, chi2, nActive };
 }
 
+/**
+ * Fastest path, for a weighted-orthonormal polynomial basis (pp = I): the
+ * Schur complement needs no inverse, S = T^T W T - C^T C, r = T^T W f - C^T pf.
+ */
+function chi2Ortho(sums: ScanSums, c: ScanConstants, allowed?: (Uint8Array | null)[]): ScanResult {
+  const { K, P, nShift } = sums;
+  const solver = makeSubsetSolver(K);
+  const chi2 = new Float64Array(nShift);
+  const nActive = new Uint8Array(nShift);
+  let base = c.fwf;
+  for (let a = 0; a < P; a++) base -= c.pf[a] * c.pf[a];
+  const S = new Float64Array(K * K);
+  const r = new Float64Array(K);
+  const amp = new Float64Array(K);
+  const usable = new Uint8Array(K);
+  const C = new Float64Array(K * P);
+  const tiny = 1e-10 * Math.max(c.sumW, 1e-300);
+  const pf = c.pf;
+  const tp = sums.tp;
+  const tt = sums.tt;
+  const tf = sums.tf;
+  for (let si = 0; si < nShift; si++) {
+    for (let j = 0; j < K; j++) {
+      let rj = tf[j][si];
+      for (let a = 0; a < P; a++) {
+        const v = tp[j * P + a][si];
+        C[j * P + a] = v;
+        rj -= v * pf[a];
+      }
+      r[j] = rj;
+    }
+    for (let j = 0; j < K; j++) {
+      for (let q = j; q < K; q++) {
+        const arr = tt[j * K + q];
+        let v = arr ? arr[si] : 0;
+        for (let a = 0; a < P; a++) v -= C[j * P + a] * C[q * P + a];
+        S[j * K + q] = v;
+        S[q * K + j] = v;
+      }
+      const d = tt[j * K + j];
+      const al = allowed?.[j];
+      usable[j] = d && d[si] > tiny && (!al || al[si]) ? 1 : 0;
+    }
+    const explained = solver.solve(S, r, usable, amp);
+    chi2[si] = base - explained;
+    let act = 0;
+    for (let j = 0; j < K; j++) if (amp[j] > 0) act++;
+    nActive[si] = act;
+  }
+  return { sMin: sums.sMin, chi2, nActive };
+}
+
 /** General path: full normal equations with Lawson-Hanson at every shift. */
 function chi2General(sums: ScanSums, c: ScanConstants, allowed?: (Uint8Array | null)[]): ScanResult {
   const { K, P, nShift } = sums;
@@ -517,9 +644,10 @@ export function scanFFT(
   ds?: DataSpectra,
   dlog10?: number,
   consts?: ScanConstants,
+  basis?: Float64Array[],
 ): ScanResult {
   const allowed = dlog10 ? peakMasks(data, vectors, sMin, sMax - sMin + 1, dlog10) : undefined;
-  return chi2FromSums(scanSumsFFT(data, vectors, sMin, sMax, P, key, ds), consts ?? scanConstants(data, P), allowed);
+  return chi2FromSums(scanSumsFFT(data, vectors, sMin, sMax, P, key, ds, basis), consts ?? scanConstants(data, P, basis), allowed);
 }
 
 /** Chi-square at every shift by direct sums (slow; for tests). */
@@ -529,7 +657,16 @@ export function scanDirect(data: ScanData, vectors: RestArray[], sMin: number, s
 }
 
 /** Chi-square at every shift by scanSumsSmall (short ranges: stars). */
-export function scanSmall(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, dlog10: number, consts?: ScanConstants): ScanResult {
+export function scanSmall(
+  data: ScanData,
+  vectors: RestArray[],
+  sMin: number,
+  sMax: number,
+  P: number,
+  dlog10: number,
+  consts?: ScanConstants,
+  basis?: Float64Array[],
+): ScanResult {
   const allowed = peakMasks(data, vectors, sMin, sMax - sMin + 1, dlog10);
-  return chi2FromSums(scanSumsSmall(data, vectors, sMin, sMax, P), consts ?? scanConstants(data, P), allowed);
+  return chi2FromSums(scanSumsSmall(data, vectors, sMin, sMax, P, basis), consts ?? scanConstants(data, P, basis), allowed);
 }

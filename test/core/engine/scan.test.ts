@@ -1,5 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { chi2FromSums, polyBasis, scanConstants, scanDirect, scanFFT, scanSumsDirect, scanSumsFFT, scanSumsSmall, type ScanData } from '../../../src/core/engine/scan';
+import {
+  chi2FromSums, chi2FromSumsGeneral, dataSpectra, fftSizeFor, polyBasis, scanConstants, scanDirect, scanFFT, scanSmall, scanSumsDirect, scanSumsFFT, scanSumsSmall,
+  weightedOrthonormalBasis, type ScanData,
+} from '../../../src/core/engine/scan';
 import { binRest, withSupport } from '../../../src/core/engine/restArray';
 import { templateFamilies } from '../../../src/core/engine/templates';
 import { makeRng } from './synth';
@@ -81,6 +84,32 @@ describe('scan', () => {
     const argmin = (x: Float64Array) => x.indexOf(Math.min(...x));
     expect(a.sMin + argmin(a.chi2)).toBe(trueShift);
     expect(argmin(a.chi2)).toBe(argmin(b.chi2));
+  });
+
+  it('the weighted-orthonormal basis gives the chi2 of the Legendre basis (FFT and small-range sums)', () => {
+    const fam = templateFamilies().find((f) => f.id === 'galaxy-sf')!;
+    const vecs = fam.scanVectors.map((v) => binRest(v, 3));
+    const data = randomData(900, 11870, 9);
+    const P = 5;
+    const q = weightedOrthonormalBasis(data, P)!;
+    const cq = scanConstants(data, P, q);
+    // sum w q_a q_b = delta_ab (definition of the basis)
+    expect(cq.orthonormal).toBe(true);
+    const cl = scanConstants(data, P);
+    expect(cl.orthonormal).toBe(false);
+    const sMin = 0;
+    const sMax = 1300;
+    const ds = dataSpectra(data, P, fftSizeFor(data.flux.length, sMax - sMin + 1), q);
+    const fast = chi2FromSums(scanSumsFFT(data, vecs, sMin, sMax, P, 'test-ortho', ds), cq).chi2;
+    // slow reference: direct sums in the Legendre basis, full NNLS at every shift
+    const slow = chi2FromSumsGeneral(scanSumsDirect(data, vecs, sMin, sMax, P), cl).chi2;
+    let worst = 0;
+    for (let s = 0; s < fast.length; s++) worst = Math.max(worst, Math.abs(fast[s] - slow[s]) / slow[s]);
+    // round-off only (keep-the-slow-version rule)
+    expect(worst).toBeLessThan(1e-9);
+    const small = scanSmall(data, vecs, 400, 440, P, 3e-4, cq, q).chi2;
+    const smallRef = scanDirect(data, vecs, 400, 440, P, 3e-4, cl).chi2;
+    for (let s = 0; s < small.length; s++) expect(Math.abs(small[s] - smallRef[s]) / smallRef[s]).toBeLessThan(1e-9);
   });
 
   it('polyBasis gives Legendre P0..P2 at the ends and middle', () => {

@@ -58,6 +58,31 @@ export class CorrelationPlan {
    * pair optional), each of length L, written into out1/out2.
    */
   correlatePair(X1: HalfSpectrum, Y1: HalfSpectrum, out1: Float64Array, X2?: HalfSpectrum, Y2?: HalfSpectrum, out2?: Float64Array): void {
+    this.inversePair(X1, Y1, X2, Y2);
+    const L = this.size;
+    const V = this.bufOut;
+    const inv = 1 / L;
+    for (let m = 0; m < L; m++) out1[m] = V[2 * m] * inv;
+    if (out2) for (let m = 0; m < L; m++) out2[m] = -V[2 * m + 1] * inv;
+  }
+
+  /**
+   * correlatePair writing only c(mStart - i) for i = 0 .. count - 1 into
+   * dest1[i] (and dest2[i]): the lags a scan needs, in shift order.
+   */
+  correlatePairLags(
+    X1: HalfSpectrum, Y1: HalfSpectrum, dest1: Float64Array, mStart: number, count: number,
+    X2?: HalfSpectrum, Y2?: HalfSpectrum, dest2?: Float64Array,
+  ): void {
+    this.inversePair(X1, Y1, X2, Y2);
+    const V = this.bufOut;
+    const inv = 1 / this.size;
+    for (let i = 0; i < count; i++) dest1[i] = V[2 * (mStart - i)] * inv;
+    if (dest2) for (let i = 0; i < count; i++) dest2[i] = -V[2 * (mStart - i) + 1] * inv;
+  }
+
+  /** bufOut = fft(conj(W)), W_k = C1_k + i C2_k; c1 = Re / L, c2 = -Im / L. */
+  private inversePair(X1: HalfSpectrum, Y1: HalfSpectrum, X2?: HalfSpectrum, Y2?: HalfSpectrum): void {
     const L = this.size;
     const h = L / 2;
     const W = this.bufIn;
@@ -85,10 +110,6 @@ export class CorrelationPlan {
       }
     }
     this.fft.transform(this.bufOut, W);
-    const V = this.bufOut;
-    const inv = 1 / L;
-    for (let m = 0; m < L; m++) out1[m] = V[2 * m] * inv;
-    if (out2) for (let m = 0; m < L; m++) out2[m] = -V[2 * m + 1] * inv;
   }
 }
 

@@ -20,11 +20,49 @@ export interface FineData {
   medianSnr: number;
 }
 
-function median(a: Float64Array, n: number): number {
+/** Median of a[0..n) (reorders a): Hoare's selection (Hoare 1961, CACM 4, 321), the same value sorting gives. */
+export function median(a: Float64Array, n: number): number {
   if (n === 0) return NaN;
-  const s = a.subarray(0, n).sort();
   const m = n >> 1;
-  return n % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
+  const hiVal = select(a, 0, n - 1, m);
+  if (n % 2) return hiVal;
+  // the lower middle is the largest value left of m after selection
+  let loVal = -Infinity;
+  for (let i = 0; i < m; i++) if (a[i] > loVal) loVal = a[i];
+  return 0.5 * (loVal + hiVal);
+}
+
+/** k-th smallest of a[l..r] (0-based k), leaving smaller values left of k and larger right. */
+function select(a: Float64Array, l: number, r: number, k: number): number {
+  while (r > l) {
+    // median of three as pivot
+    const mid = (l + r) >> 1;
+    if (a[mid] < a[l]) swap(a, mid, l);
+    if (a[r] < a[l]) swap(a, r, l);
+    if (a[r] < a[mid]) swap(a, r, mid);
+    const pivot = a[mid];
+    let i = l;
+    let j = r;
+    while (i <= j) {
+      while (a[i] < pivot) i++;
+      while (a[j] > pivot) j--;
+      if (i <= j) {
+        swap(a, i, j);
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) r = j;
+    else if (k >= i) l = i;
+    else return a[k];
+  }
+  return a[k];
+}
+
+function swap(a: Float64Array, i: number, j: number): void {
+  const t = a[i];
+  a[i] = a[j];
+  a[j] = t;
 }
 
 /** Resample and normalise; a one-line reason when too few pixels are usable. */

@@ -25,6 +25,7 @@ import { binRest, type RestArray } from './restArray';
 import { dataSpectra, fftSizeFor, scanConstants, scanSmall, scanFFT, weightedOrthonormalBasis, type DataSpectra, type ScanConstants, type ScanData } from './scan';
 import { TEMPLATE_SET_ID, templateFamilies, type TemplateFamily } from './templates';
 import { ENGINE_VERSION } from './version';
+import { parabolaVertex } from './parabola';
 
 /**
  * Continuum polynomial terms in the observed frame when not given: 5 (3 gave
@@ -199,8 +200,23 @@ function scanMinima(fs: FamilyScan, lo: number, hi: number, count: number): Scan
 /** Refine one scan minimum on the fine grid between lo..hi. */
 function refineScanMinimum(p: Prepared, m: ScanMinimum, lo: number, hi: number, windowEdges: boolean): RefinedCandidate {
   const { fs } = m;
-  const c = refineMinimum(p.ctx, fs.family, (fs.sMin + m.index) * fs.binning, lo, hi, windowEdges || lo === fs.lo, windowEdges || hi === fs.hi);
+  const c = refineMinimum(p.ctx, fs.family, startShift(fs, m.index), lo, hi, windowEdges || lo === fs.lo, windowEdges || hi === fs.hi);
   return withFloor(c, p.input.lambdaMinA, p.input.lambdaMaxA);
+}
+
+/**
+ * Fine-grid shift to start refining from: the vertex of the parabola through
+ * the scan minimum and its two neighbours (within half a scan pixel), which
+ * saves walking steps when the scan pixel spans several fine ones.
+ */
+function startShift(fs: FamilyScan, index: number): number {
+  const y = fs.chi2;
+  const centre = (fs.sMin + index) * fs.binning;
+  if (index <= 0 || index >= y.length - 1) return centre;
+  const v = parabolaVertex(index, 1, y[index - 1], y[index], y[index + 1]);
+  if (!(v.d2 > 0)) return centre;
+  const off = Math.max(-0.5, Math.min(0.5, v.x0 - index));
+  return Math.round(centre + off * fs.binning);
 }
 
 /** The free fit: the best REFINE_TOTAL scan minima across families (at most REFINE_PER_FAMILY each), refined. */
@@ -254,6 +270,21 @@ export function decimateCurve(z: Float64Array, y: Float64Array, maxPts: number):
   return { z: zo, y: yo };
 }
 
+/** Indices decimateCurve keeps (the lowest y of each bucket), or null when nothing is dropped. */
+function decimatedIndices(y: Float64Array, maxPts: number): Int32Array | null {
+  const n = y.length;
+  if (n <= maxPts) return null;
+  const out = new Int32Array(maxPts);
+  for (let b = 0; b < maxPts; b++) {
+    const i0 = Math.floor((b * n) / maxPts);
+    const i1 = Math.floor(((b + 1) * n) / maxPts);
+    let best = i0;
+    for (let i = i0 + 1; i < i1; i++) if (y[i] < y[best]) best = i;
+    out[b] = best;
+  }
+  return out;
+}
+
 /**
  * Curves as the best chi2 improvement over the polynomial (any family) minus
  * this family's improvement at z: 0 at the deepest scan minimum, and
@@ -263,14 +294,18 @@ function curvesOf(scans: FamilyScan[]): ChiSquareCurve[] {
   let bestGain = -Infinity;
   for (const s of scans) for (const v of s.chi2) bestGain = Math.max(bestGain, s.chi2Poly - v);
   return scans.map((s) => {
-    const z = new Float64Array(s.chi2.length);
-    const y = new Float64Array(s.chi2.length);
-    for (let i = 0; i < z.length; i++) {
-      z[i] = zOfShift((s.sMin + i) * s.binning, DLOG10);
-      y[i] = bestGain - (s.chi2Poly - s.chi2[i]);
+    const n = s.chi2.length;
+    const keep = decimatedIndices(s.chi2, CURVE_MAX_POINTS);
+    const m = keep ? keep.length : n;
+    const z = new Float64Array(m);
+    const y = new Float64Array(m);
+    // z only for the points kept (one power each), the same numbers as decimateCurve gives.
+    for (let q = 0; q < m; q++) {
+      const i = keep ? keep[q] : q;
+      z[q] = zOfShift((s.sMin + i) * s.binning, DLOG10);
+      y[q] = bestGain - (s.chi2Poly - s.chi2[i]);
     }
-    const d = decimateCurve(z, y, CURVE_MAX_POINTS);
-    return { family: s.family.id, z: d.z, deltaChi2: d.y };
+    return { family: s.family.id, z, deltaChi2: y };
   });
 }
 

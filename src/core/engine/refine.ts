@@ -74,47 +74,58 @@ interface ForestPrefix {
 
 /**
  * One set of prefix buffers per thread, reused from spectrum to spectrum (they
- * are large: (n + 1) P^2 numbers twice); `prefixOwner` says whose sums they hold.
+ * are large: (n + 1) P^2 numbers twice); `prefixOwner` says whose sums they
+ * hold and `prefixUpTo` how far they are filled (extended on demand: a
+ * quasar at low z never needs more than the first few pixels).
  */
 let prefixBuf: ForestPrefix | null = null;
 let prefixOwner: RefineContext | null = null;
+let prefixUpTo = 0;
 
-function forestPrefix(ctx: RefineContext): ForestPrefix {
+/** Prefix sums valid at least for indices 0 .. upTo (<= n). */
+function forestPrefix(ctx: RefineContext, upTo: number): ForestPrefix {
   const { P, poly, wf, wp } = ctx;
   const n = ctx.data.flux.length;
   const T = P * P;
-  if (prefixOwner === ctx && prefixBuf) return prefixBuf;
-  if (!prefixBuf || prefixBuf.pForest.length < (n + 1) * T || prefixBuf.fForest.length < (n + 1) * P) {
-    prefixBuf = {
-      pForest: new Float64Array((n + 1) * T),
-      pAbs: new Float64Array((n + 1) * T),
-      fForest: new Float64Array((n + 1) * P),
-      fAbs: new Float64Array((n + 1) * P),
-    };
+  if (prefixOwner !== ctx || !prefixBuf) {
+    if (!prefixBuf || prefixBuf.pForest.length < (n + 1) * T || prefixBuf.fForest.length < (n + 1) * P) {
+      prefixBuf = {
+        pForest: new Float64Array((n + 1) * T),
+        pAbs: new Float64Array((n + 1) * T),
+        fForest: new Float64Array((n + 1) * P),
+        fAbs: new Float64Array((n + 1) * P),
+      };
+    }
+    prefixBuf.pForest.fill(0, 0, T);
+    prefixBuf.pAbs.fill(0, 0, T);
+    prefixBuf.fForest.fill(0, 0, P);
+    prefixBuf.fAbs.fill(0, 0, P);
+    prefixOwner = ctx;
+    prefixUpTo = 0;
   }
   const ps = prefixBuf;
   const { pForest, pAbs, fForest, fAbs } = ps;
-  pForest.fill(0, 0, T);
-  pAbs.fill(0, 0, T);
-  fForest.fill(0, 0, P);
-  fAbs.fill(0, 0, P);
-  for (let i = 0; i < n; i++) {
+  const end = Math.min(n, upTo);
+  for (let i = prefixUpTo; i < end; i++) {
     const F = ctx.forestTrans[i];
     const d = F * F - 1;
     const e = F - 1;
+    const wfi = wf[i];
     for (let a = 0; a < P; a++) {
       const o = i * P + a;
-      fForest[o + P] = fForest[o] + wf[i] * poly[a][i] * e;
-      fAbs[o + P] = fAbs[o] - wf[i] * poly[a][i];
+      const pai = poly[a][i];
+      fForest[o + P] = fForest[o] + wfi * pai * e;
+      fAbs[o + P] = fAbs[o] - wfi * pai;
+      const wpai = wp[a][i];
       for (let c = 0; c < P; c++) {
         const u = i * T + a * P + c;
-        const wpp = wp[a][i] * poly[c][i];
+        const wpp = wpai * poly[c][i];
         pForest[u + T] = pForest[u] + wpp * d;
         pAbs[u + T] = pAbs[u] - wpp;
       }
     }
   }
-  prefixOwner = ctx;
+  if (end > prefixUpTo) prefixUpTo = end;
   return ps;
 }
 
@@ -370,7 +381,7 @@ function polyForestCorrection(ctx: RefineContext, s: number, M: Float64Array, b:
   const kLl = Math.log10(LL_A) / ctx.dlog10 + s;
   const iLya = Math.min(nPix, Math.max(0, Math.ceil(kLya - data.k0)));
   const iLl = Math.min(iLya, Math.max(0, Math.ceil(kLl - data.k0)));
-  const ps = forestPrefix(ctx);
+  const ps = forestPrefix(ctx, iLya);
   const T = P * P;
   for (let a = 0; a < P; a++) {
     b[a] += ps.fAbs[iLl * P + a] + ps.fForest[iLya * P + a] - ps.fForest[iLl * P + a];

@@ -69,9 +69,11 @@ export function resampleToLogGrid(s: Spectrum, dlog10 = DLOG10): LogSpectrum {
   const flux = new Float64Array(m);
   const ivar = new Float64Array(m);
   let i = 0;
+  let hi = Math.pow(10, (k0 - 0.5) * dlog10);
   for (let j = 0; j < m; j++) {
-    const lo = Math.pow(10, (k0 + j - 0.5) * dlog10);
-    const hi = Math.pow(10, (k0 + j + 0.5) * dlog10);
+    // Each output edge once: this pixel's lower edge is the last one's upper edge (same expression).
+    const lo = hi;
+    hi = Math.pow(10, (k0 + j + 0.5) * dlog10);
     while (i < n && edges[i + 1] <= lo) i++;
     let sumO = 0;
     let sumOF = 0;

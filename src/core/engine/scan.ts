@@ -385,15 +385,11 @@ export function scanSumsFFT(data: ScanData, vectors: RestArray[], sMin: number, 
       if (prod && dest && reaches(vectors[q], data, sMin, sMax)) jobs.push({ X: d.w, Y: prod, dest });
     }
   }
-  const out1 = new Float64Array(L);
-  const out2 = new Float64Array(L);
   const mAt0 = data.k0 - sMin - R0; // m for s = sMin; m decreases by 1 per shift
   for (let i = 0; i < jobs.length; i += 2) {
     const a = jobs[i];
     const b = jobs[i + 1];
-    plan.correlatePair(a.X, a.Y, out1, b?.X, b?.Y, b ? out2 : undefined);
-    for (let si = 0; si < nShift; si++) a.dest[si] = out1[mAt0 - si];
-    if (b) for (let si = 0; si < nShift; si++) b.dest[si] = out2[mAt0 - si];
+    plan.correlatePairLags(a.X, a.Y, a.dest, mAt0, nShift, b?.X, b?.Y, b?.dest);
   }
   return sums;
 }
@@ -422,6 +418,8 @@ export function scanConstants(data: ScanData, P: number, basis?: Float64Array[])
   let sumW = 0;
   const pf = new Float64Array(P);
   const pp = new Float64Array(P * P);
+  const wf = new Float64Array(n);
+  const wOnly = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const w = data.ivar[i];
     if (!(w > 0)) continue;
@@ -429,9 +427,20 @@ export function scanConstants(data: ScanData, P: number, basis?: Float64Array[])
     sumW += w;
     const f = data.flux[i];
     fwf += w * f * f;
-    for (let a = 0; a < P; a++) {
-      pf[a] += w * f * poly[a][i];
-      for (let b = 0; b < P; b++) pp[a * P + b] += w * poly[a][i] * poly[b][i];
+    wf[i] = w * f;
+    wOnly[i] = w;
+  }
+  for (let a = 0; a < P; a++) {
+    const pa = poly[a];
+    let sf = 0;
+    for (let i = 0; i < n; i++) sf += wf[i] * pa[i];
+    pf[a] = sf;
+    for (let b = 0; b <= a; b++) {
+      const pb = poly[b];
+      let sp = 0;
+      for (let i = 0; i < n; i++) sp += wOnly[i] * pa[i] * pb[i];
+      pp[a * P + b] = sp;
+      pp[b * P + a] = sp;
     }
   }
   let orthonormal = P > 0;

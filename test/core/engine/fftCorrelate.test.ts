@@ -33,6 +33,32 @@ describe('CorrelationPlan', () => {
     }
   });
 
+  it('correlatePairLags writes c(mStart - i) of correlatePair, for one pair and for two', () => {
+    const L = 128;
+    const r = rand(11);
+    const x1 = Float64Array.from({ length: 40 }, r);
+    const y1 = Float64Array.from({ length: L }, r);
+    const x2 = Float64Array.from({ length: 60 }, r);
+    const y2 = Float64Array.from({ length: L }, r);
+    const plan = new CorrelationPlan(L);
+    const [X1, X2] = plan.forwardPair(x1, x2);
+    const [Y1, Y2] = plan.forwardPair(y1, y2);
+    const c1 = new Float64Array(L);
+    const c2 = new Float64Array(L);
+    plan.correlatePair(X1, Y1, c1, X2, Y2, c2);
+    const a = new Float64Array(30);
+    const b = new Float64Array(30);
+    plan.correlatePairLags(X1, Y1, a, 90, 30, X2, Y2, b);
+    for (let i = 0; i < 30; i++) {
+      expect(a[i]).toBe(c1[90 - i]);
+      expect(b[i]).toBe(c2[90 - i]);
+    }
+    const single = new Float64Array(30);
+    plan.correlatePairLags(X1, Y1, single, 90, 30);
+    // one pair: the same lags to round-off (the second slot of the transform is empty)
+    for (let i = 0; i < 30; i++) expect(Math.abs(single[i] - c1[90 - i])).toBeLessThan(1e-12 * (1 + Math.abs(c1[90 - i])));
+  });
+
   it('rejects sizes that are not powers of two', () => {
     expect(() => new CorrelationPlan(100)).toThrow(/power of two/);
   });

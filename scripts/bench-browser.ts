@@ -17,7 +17,7 @@ import { fileURLToPath } from 'node:url';
 import type { CDPSession, Page } from 'playwright-core';
 import { batchParams, createRng, mixSeed, simulateSpectrum, DEFAULT_GRID, type GridSpec } from '../src/core/sim';
 import { writeFitsFile, writeImageHdu } from '../src/core/io/fits/write';
-import { artifactPath, browserAvailable, buildApp, removeDir, serveDist, spawnChromium, tempDir, waitForFitting, type OwnChromium } from '../test/e2e/harness';
+import { artifactPath, browserAvailable, buildApp, releaseApp, removeDir, serveDist, spawnChromium, tempDir, waitForFitting, type OwnChromium } from '../test/e2e/harness';
 
 /** Grid of the fitting benchmark: 3600-10400 A, 1e-4 in log10 per pixel (4,607 pixels). */
 const FIT_GRID: GridSpec = { kind: 'log10', startA: 3600, endA: 10400, dLog10: 1e-4 };
@@ -380,6 +380,7 @@ export async function benchBrowser(options: BrowserBenchOptions = {}): Promise<v
     if (chrome) await (chrome as OwnChromium).close();
     await server.close();
     removeDir(tmp);
+    await releaseApp();
     printTable(rows, log);
   }
 }

@@ -15,6 +15,7 @@ import {
   artifactPath,
   browserAvailable,
   buildApp,
+  releaseApp,
   launchBrowser,
   removeDir,
   serveDist,
@@ -61,6 +62,7 @@ describe.skipIf(!browserAvailable)('Chromium killed mid-review, and hostile name
     for (const c of running) await c.close().catch(() => undefined);
     await serverClose?.();
     for (const d of dirs) removeDir(d);
+    await releaseApp();
   });
 
   it('keeps every decision when the browser process is killed with SIGKILL', { timeout: 180_000 }, async () => {

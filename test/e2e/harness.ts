@@ -55,6 +55,14 @@ export function buildApp(): Promise<string> {
   return built;
 }
 
+/** Remove this process's build (call from afterAll; the exit hook is a fallback that test workers may skip). */
+export async function releaseApp(): Promise<void> {
+  if (!built) return;
+  const dir = await built.catch(() => null);
+  built = null;
+  if (dir) removeDir(dir);
+}
+
 const TYPES: Record<string, string> = {
   '.html': 'text/html; charset=utf-8',
   '.js': 'text/javascript',

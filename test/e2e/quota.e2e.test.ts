@@ -12,7 +12,7 @@ import { afterAll, beforeAll, describe, expect, it, onTestFailed } from 'vitest'
 import type { Page } from 'playwright-core';
 import { parseSession } from '../../src/ui/persist/sessionFile';
 import { listDemoFiles } from '../../scripts/demoSetPlugin';
-import { ROOT, artifactPath, browserAvailable, buildApp, launchBrowser, serveDist, waitForFitting, watchRequests } from './harness';
+import { ROOT, artifactPath, browserAvailable, buildApp, releaseApp, launchBrowser, serveDist, waitForFitting, watchRequests } from './harness';
 
 const DEMO_COUNT = listDemoFiles(join(ROOT, 'sample-spectra')).length;
 
@@ -51,6 +51,7 @@ describe.skipIf(!browserAvailable)('refused IndexedDB writes in Chromium', () =>
 
   afterAll(async () => {
     await serverClose?.();
+    await releaseApp();
   });
 
   it('tells the user when a decision cannot be stored and exports the session at once', { timeout: 120_000 }, async () => {

@@ -19,6 +19,7 @@ import {
   artifactPath,
   browserAvailable,
   buildApp,
+  releaseApp,
   cspOf,
   launchBrowser,
   removeDir,
@@ -104,6 +105,7 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
     await context?.close();
     await serverClose?.();
     if (userDataDir) removeDir(userDataDir);
+    await releaseApp();
   });
 
   it('reviews three spectra by keyboard, keeps them over a reload and exports them', { timeout: 240_000 }, async () => {

@@ -12,7 +12,7 @@ import { mkdtempSync, rmSync, symlinkSync, writeFileSync, mkdirSync } from 'node
 import { availableParallelism, tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { simulateBatch } from '../src/core/sim';
+import { simulateBatchItem } from '../src/core/sim';
 import { writeFitsFile, writeImageHdu } from '../src/core/io/fits/write';
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '..');
@@ -27,28 +27,27 @@ export interface CliBenchRow {
 function writeSpectra(dir: string, n: number): string[] {
   const grid = { kind: 'log10' as const, startA: 3600, endA: 10400, dLog10: 1e-4 };
   const names: string[] = [];
-  for (let start = 0; start < n; start += 100) {
-    for (const s of simulateBatch(Math.min(n, start + 100), 2029, { grid }).slice(start)) {
-      const sp = s.spectrum;
-      const name = `${s.truth.objectId}.fits`;
-      const bytes = writeFitsFile([
-        writeImageHdu({
-          data: Float32Array.from(sp.flux),
-          primary: true,
-          cards: [
-            ['CTYPE1', 'WAVE-LOG'],
-            ['CUNIT1', 'Angstrom'],
-            ['CRPIX1', 1],
-            ['CRVAL1', sp.wavelengthA[0]],
-            ['CDELT1', sp.wavelengthA[0] * Math.LN10 * 1e-4],
-            ['OBJECT', s.truth.objectId],
-          ],
-        }),
-        writeImageHdu({ data: Float32Array.from(sp.ivar ?? new Float64Array(sp.flux.length)), extname: 'IVAR', primary: false }),
-      ]);
-      writeFileSync(join(dir, name), bytes);
-      names.push(name);
-    }
+  for (let i = 0; i < n; i++) {
+    const s = simulateBatchItem(i, 2029, { grid });
+    const sp = s.spectrum;
+    const name = `${s.truth.objectId}.fits`;
+    const bytes = writeFitsFile([
+      writeImageHdu({
+        data: Float32Array.from(sp.flux),
+        primary: true,
+        cards: [
+          ['CTYPE1', 'WAVE-LOG'],
+          ['CUNIT1', 'Angstrom'],
+          ['CRPIX1', 1],
+          ['CRVAL1', sp.wavelengthA[0]],
+          ['CDELT1', sp.wavelengthA[0] * Math.LN10 * 1e-4],
+          ['OBJECT', s.truth.objectId],
+        ],
+      }),
+      writeImageHdu({ data: Float32Array.from(sp.ivar ?? new Float64Array(sp.flux.length)), extname: 'IVAR', primary: false }),
+    ]);
+    writeFileSync(join(dir, name), bytes);
+    names.push(name);
   }
   return names;
 }

@@ -66,11 +66,13 @@ export function batchParams(i: number, seed: number, options: BatchOptions = {})
   };
 }
 
+/** Object i of the batch on its own (the same as simulateBatch(n, seed)[i] for any n > i). */
+export function simulateBatchItem(i: number, seed: number, options: BatchOptions = {}): Simulated {
+  return simulateSpectrum(batchParams(i, seed, options), createRng(mixSeed(seed, 0x51d + i)));
+}
+
 export function simulateBatch(n: number, seed: number, options: BatchOptions = {}): Simulated[] {
   const out: Simulated[] = [];
-  for (let i = 0; i < n; i++) {
-    const p = batchParams(i, seed, options);
-    out.push(simulateSpectrum(p, createRng(mixSeed(seed, 0x51d + i))));
-  }
+  for (let i = 0; i < n; i++) out.push(simulateBatchItem(i, seed, options));
   return out;
 }

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { simulateBatch, batchParams } from '../../../src/core/sim/simulateBatch';
+import { simulateBatch, simulateBatchItem, batchParams } from '../../../src/core/sim/simulateBatch';
 
 describe('simulateBatch', () => {
   it('object i is the same whatever n is, and the same for the same seed', () => {
@@ -9,6 +9,7 @@ describe('simulateBatch', () => {
       expect(b[i].truth.objectId).toBe(a[i].truth.objectId);
       expect(Array.from(b[i].spectrum.flux)).toEqual(Array.from(a[i].spectrum.flux));
     }
+    expect(Array.from(simulateBatchItem(4, 42).spectrum.flux)).toEqual(Array.from(b[4].spectrum.flux));
     const c = simulateBatch(1, 43);
     expect(Array.from(c[0].spectrum.flux)).not.toEqual(Array.from(a[0].spectrum.flux));
   });

@@ -38,10 +38,15 @@ export interface PoolOptions {
 /** Per-file time limit used by the app, ms: far above a normal fit (well under a second). */
 export const DEFAULT_TIME_LIMIT_MS = 30_000;
 
-/** One worker per core, leaving one core for the page (at least one worker). */
+/**
+ * Workers for fitting: one per core, less one for the page on machines with
+ * more than two cores, at most 8. On one or two cores every core fits: the page
+ * thread needs little CPU while fits run (they never block it), and idling a
+ * core would halve the throughput. (The review loop has its own worker.)
+ */
 export function defaultPoolSize(hardwareConcurrency: number | undefined): number {
   const cores = hardwareConcurrency && hardwareConcurrency > 0 ? Math.floor(hardwareConcurrency) : 2;
-  return Math.max(1, cores - 1);
+  return Math.min(8, cores <= 2 ? cores : cores - 1);
 }
 
 interface Queued {

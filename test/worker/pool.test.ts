@@ -165,10 +165,11 @@ describe('FitPool', () => {
     expect(FakeWorker.made[0].terminated).toBe(true);
   });
 
-  it('defaultPoolSize leaves one core for the page', () => {
-    // Common practice: workers = cores - 1, at least one.
+  it('defaultPoolSize uses every core of a small machine and leaves one for the page on a larger one', () => {
     expect(defaultPoolSize(8)).toBe(7);
+    expect(defaultPoolSize(32)).toBe(8);
+    expect(defaultPoolSize(2)).toBe(2);
     expect(defaultPoolSize(1)).toBe(1);
-    expect(defaultPoolSize(undefined)).toBe(1);
+    expect(defaultPoolSize(undefined)).toBe(2);
   });
 });

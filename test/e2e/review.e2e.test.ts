@@ -12,6 +12,8 @@ import type { BrowserContext, Page } from 'playwright-core';
 import { LINES, SKY_REGIONS_A } from '../../src/core/lines/catalogue';
 import { parseTruthCsv, type SampleTruthRow } from '../../src/core/sim';
 import { parseCatalogueCsv } from '../../src/core/table/csv';
+import { AUTOMATIC_COLUMNS, automaticRow } from '../../src/core/table';
+import { fitBytes } from '../../src/core/pipeline';
 import { DEFAULT_COSMOLOGY, describeCosmology } from '../../src/core/cosmology';
 import { listDemoFiles } from '../../scripts/demoSetPlugin';
 import {
@@ -237,6 +239,17 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
     // The automatic z of the accepted row is its final z.
     const acc = table.rows.find((x) => x.object_id === made[0].objectId)!;
     expect(acc.final_z).toBe(acc.z);
+
+    // The browser's automatic columns equal the headless fitter's for the same
+    // files: the fitter writes automaticRow(fitBytes(...)) (test/cli/fitCli.test.ts
+    // checks that), so compare with that core call run here in Node.
+    for (const r of table.rows) {
+      const expected = automaticRow(fitBytes(new Uint8Array(readFileSync(join(ROOT, r.file))), r.file), DEFAULT_COSMOLOGY);
+      for (const c of AUTOMATIC_COLUMNS) {
+        if (c.group === 'derived') continue; // derived columns follow final_z in the reviewed table
+        expect(r[c.name], `${r.file} ${c.name}`).toBe(expected[c.name]);
+      }
+    }
 
     expect(pageErrors).toEqual([]);
     expect(requestsSeen).toBeGreaterThan(DEMO_FILES.length); // the watch saw the demo set's requests

@@ -10,7 +10,7 @@ import { fineData } from './fineData';
 import { DLOG10, shiftOfZ } from './logGrid';
 import { evaluateFull, makeRefineContext, modelFlux } from './refine';
 import { DEFAULT_POLY_TERMS } from './fitSpectrum';
-import { templateFamilies } from './templates';
+import { FORMER_FAMILY_IDS, templateFamilies } from './templates';
 
 /**
  * Model flux per input pixel, in the input's flux unit; NaN where it is not
@@ -21,7 +21,8 @@ import { templateFamilies } from './templates';
 export function solutionModel(spectrum: Spectrum, z: number, family: string, polyTerms = DEFAULT_POLY_TERMS): Float64Array {
   const wl = spectrum.wavelengthA;
   const out = new Float64Array(wl.length).fill(NaN);
-  const fam = templateFamilies().find((f) => f.id === family);
+  const id = FORMER_FAMILY_IDS[family] ?? family;
+  const fam = templateFamilies().find((f) => f.id === id);
   if (!fam || !Number.isFinite(z) || z <= -1) return out;
   const fd = fineData(spectrum);
   if (typeof fd === 'string') return out;

@@ -25,9 +25,9 @@ describe('systematic z-error floors', () => {
 
   it('adds in quadrature: dz_floor = (1 + z) v / c', () => {
     expect(floorKms(cand('galaxy-sf', 0.5), 3600, 9200)).toBe(SF_GALAXY_FLOOR_KMS);
-    expect(floorKms(cand('star-G', 0), 3600, 9200)).toBe(0);
+    expect(floorKms(cand('star', 0), 3600, 9200)).toBe(0);
     const c = withFloor(cand('qso', 4.5), 3600, 9200);
     expect(c.zErr).toBeCloseTo(Math.hypot(1e-5, (5.5 * 415) / C_KMS), 12);
-    expect(withFloor(cand('star-G', 0), 3600, 9200).zErr).toBe(1e-5);
+    expect(withFloor(cand('star', 0), 3600, 9200).zErr).toBe(1e-5);
   });
 });

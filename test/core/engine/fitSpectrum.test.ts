@@ -15,7 +15,8 @@ describe('fitSpectrum: injected redshifts are recovered for each family', () => 
     { id: 'qso', amps: [0, 0, 0, 0, 3, 4, 1, 0], z: 0.4321, cls: 'qso', cont: slope },
     { id: 'galaxy-sf', amps: [4, 4, 5, 2, 0], z: 0.7123, cls: 'galaxy', cont: slope },
     { id: 'galaxy-passive', amps: [20, 2], z: 0.3517, cls: 'galaxy' },
-    { id: 'star-G', amps: [20], z: 0.0002, cls: 'star' },
+    { id: 'star', amps: [0, 20, 0, 0], z: 0.0002, cls: 'star' },
+    { id: 'star', amps: [0, 0, 5, 15], z: -0.0003, cls: 'star' },
   ];
   for (const c of cases) {
     it(`${c.id} at z = ${c.z}`, () => {

@@ -62,8 +62,12 @@ const MAX_WALK = 8;
  * pixel and its neighbours with the template set held fixed.
  * `edgeLo`/`edgeHi` say whether lo/hi are true range edges (a minimum there is flagged).
  */
-export function refineMinimum(ctx: RefineContext, family: TemplateFamily, start: number, lo: number, hi: number, edgeLo = true, edgeHi = true): RefinedCandidate {
+export function refineMinimum(
+  ctx: RefineContext, family: TemplateFamily, start: number, lo: number, hi: number, edgeLo = true, edgeHi = true, known?: FullFit,
+): RefinedCandidate {
   const cache = new Map<number, FullFit>();
+  // `known`: an evaluation already made at some shift (the screening one), reused.
+  if (known) cache.set(known.shift, known);
   const at = (s: number) => {
     let f = cache.get(s);
     if (!f) {

@@ -26,11 +26,25 @@ export const REST_MAX_A = 30000;
 
 /** Sample f(lambda_rest in A) at every fine-grid pixel centre of [REST_MIN_A, REST_MAX_A]. */
 export function sampleRest(f: (lambdaA: number) => number): RestArray {
-  const kStart = Math.floor(Math.log10(REST_MIN_A) / DLOG10);
-  const kEnd = Math.ceil(Math.log10(REST_MAX_A) / DLOG10);
-  const values = new Float64Array(kEnd - kStart + 1);
-  for (let j = 0; j < values.length; j++) values[j] = f(Math.pow(10, (kStart + j) * DLOG10));
+  const { kStart, lambdaA } = restGrid();
+  const values = new Float64Array(lambdaA.length);
+  for (let j = 0; j < values.length; j++) values[j] = f(lambdaA[j]);
   return withSupport(kStart, values);
+}
+
+let grid: { kStart: number; lambdaA: Float64Array } | null = null;
+
+/** The rest-frame pixel centres, Angstrom (computed once: every template samples the same grid). */
+function restGrid(): { kStart: number; lambdaA: Float64Array } {
+  if (!grid) {
+    const d = DLOG10;
+    const kStart = Math.floor(Math.log10(REST_MIN_A) / d);
+    const kEnd = Math.ceil(Math.log10(REST_MAX_A) / d);
+    const lambdaA = new Float64Array(kEnd - kStart + 1);
+    for (let j = 0; j < lambdaA.length; j++) lambdaA[j] = Math.pow(10, (kStart + j) * d);
+    grid = { kStart, lambdaA };
+  }
+  return grid;
 }
 
 /** Build a RestArray and find its non-zero span. */

@@ -83,10 +83,16 @@ interface LineSpec {
   restA?: number;
 }
 
+const restCache = new Map<string, number>();
+
 function restOf(spec: LineSpec): number {
   if (spec.restA !== undefined) return spec.restA;
+  // Cached: the absorption shapes ask once per line per sampled pixel.
+  const hit = restCache.get(spec.id);
+  if (hit !== undefined) return hit;
   const line = lineById(spec.id);
   if (!line) throw new Error(`template line ${spec.id} is not in the catalogue`);
+  restCache.set(spec.id, line.restA);
   return line.restA;
 }
 

@@ -213,9 +213,13 @@ export function bestFilterHitStrided(
     const stride = Math.max(1, Math.floor(s / pixA / 2));
     let top: FilterHit | null = null;
     let topScore = -Infinity;
+    const ks: number[] = [];
+    const scores: number[] = [];
     for (let k = lo; ; k = Math.min(hi, k + stride)) {
       const h = filterAt(xA, r, w, k, s);
       const sc = scoreOf(h);
+      ks.push(k);
+      scores.push(sc);
       if (sc > topScore) {
         topScore = sc;
         top = h;
@@ -223,6 +227,21 @@ export function bestFilterHitStrided(
       if (k === hi) break;
     }
     if (!top) continue;
+    // Jump to the vertex of the parabola through the best sample and its two
+    // strided neighbours (the response is smooth on that scale), so the hill
+    // climb below starts within a pixel or two of the peak.
+    const b = ks.indexOf(top.k);
+    if (stride > 2 && b > 0 && b < ks.length - 1) {
+      const kv = Math.round(parabolaPeak(ks[b - 1], scores[b - 1], ks[b], scores[b], ks[b + 1], scores[b + 1]));
+      if (kv !== top.k && kv > ks[b - 1] && kv < ks[b + 1]) {
+        const h = filterAt(xA, r, w, kv, s);
+        const sc = scoreOf(h);
+        if (sc > topScore) {
+          topScore = sc;
+          top = h;
+        }
+      }
+    }
     // Hill climb to the local peak (at most one stride each way).
     for (const dir of [1, -1]) {
       for (let step = 0; step < stride; step++) {
@@ -241,6 +260,15 @@ export function bestFilterHitStrided(
     }
   }
   return best;
+}
+
+/** Abscissa of the extremum of the parabola through three points (x1 < x2 < x3); x2 when they are collinear. */
+function parabolaPeak(x1: number, y1: number, x2: number, y2: number, x3: number, y3: number): number {
+  const a = (x2 - x1) * (y2 - y3);
+  const c = (x2 - x3) * (y2 - y1);
+  const den = a - c;
+  if (!(Math.abs(den) > 0)) return x2;
+  return x2 - 0.5 * ((x2 - x1) * a - (x2 - x3) * c) / den;
 }
 
 /**

@@ -361,7 +361,31 @@ export function fftSizeFor(n: number, nShift: number): number {
  * must always mean the same vectors). `ds` may be passed in to share data
  * spectra between families; it must have been made with the same P and size.
  */
-export function scanSumsFFT(data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, key: string, ds?: DataSpectra, basis?: Float64Array[]): ScanSums {
+/** Sums reused between spectra by scanFFT (per vector set and shift range), so a batch does not allocate them per spectrum. */
+const sumsPool = new Map<string, ScanSums>();
+const SUMS_POOL_MAX = 16;
+
+function pooledSums(poolKey: string, sMin: number, nShift: number, K: number, P: number, vectors: RestArray[]): ScanSums {
+  const hit = sumsPool.get(poolKey);
+  if (hit) {
+    for (const a of hit.tf) a.fill(0);
+    for (const a of hit.tp) a.fill(0);
+    for (const a of hit.tt) a?.fill(0);
+    return hit;
+  }
+  const sums = emptySums(sMin, nShift, K, P, vectors);
+  if (sumsPool.size >= SUMS_POOL_MAX) sumsPool.delete(sumsPool.keys().next().value as string);
+  sumsPool.set(poolKey, sums);
+  return sums;
+}
+
+/**
+ * With `reuse`, the returned sums live in a pool and are overwritten by the
+ * next call with the same key and range: use them before calling again.
+ */
+export function scanSumsFFT(
+  data: ScanData, vectors: RestArray[], sMin: number, sMax: number, P: number, key: string, ds?: DataSpectra, basis?: Float64Array[], reuse = false,
+): ScanSums {
   const n = data.flux.length;
   const K = vectors.length;
   const nShift = sMax - sMin + 1;
@@ -371,7 +395,7 @@ export function scanSumsFFT(data: ScanData, vectors: RestArray[], sMin: number, 
   const d = ds ?? dataSpectra(data, P, L, basis);
   const R0 = Math.floor((data.k0 - sMax) / SEGMENT_BLOCK) * SEGMENT_BLOCK;
   const ts = templateSpectra(key, vectors, R0, plan);
-  const sums = emptySums(sMin, nShift, K, P, vectors);
+  const sums = reuse ? pooledSums(`${key}|${sMin}|${nShift}|${P}`, sMin, nShift, K, P, vectors) : emptySums(sMin, nShift, K, P, vectors);
 
   // List every correlation to compute: (data spectrum, template spectrum, destination).
   const jobs: { X: HalfSpectrum; Y: HalfSpectrum; dest: Float64Array }[] = [];
@@ -656,7 +680,7 @@ export function scanFFT(
   basis?: Float64Array[],
 ): ScanResult {
   const allowed = dlog10 ? peakMasks(data, vectors, sMin, sMax - sMin + 1, dlog10) : undefined;
-  return chi2FromSums(scanSumsFFT(data, vectors, sMin, sMax, P, key, ds, basis), consts ?? scanConstants(data, P, basis), allowed);
+  return chi2FromSums(scanSumsFFT(data, vectors, sMin, sMax, P, key, ds, basis, true), consts ?? scanConstants(data, P, basis), allowed);
 }
 
 /** Chi-square at every shift by direct sums (slow; for tests). */

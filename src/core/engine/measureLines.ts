@@ -127,7 +127,9 @@ function maskNeighbours(xA: Float64Array, w: Float64Array, z: number, me: Planne
     if (sepKms <= me.profile.blendKms) continue;
     const half = Math.min(other.profile.maskHalfKms, sepKms / 2) / C_KMS;
     const c = (1 + z) * other.line.restA;
-    for (let k = 0; k < xA.length; k++) if (Math.abs(xA[k] - c) <= half * c) w[k] = 0;
+    if (xA.length === 0 || c - xA[xA.length - 1] > half * c || xA[0] - c > half * c) continue;
+    // xA is increasing: start a pixel before the first candidate, test each with the same condition.
+    for (let k = Math.max(0, lowerIndex(xA, c - half * c) - 1); k < xA.length && xA[k] - c <= half * c; k++) if (Math.abs(xA[k] - c) <= half * c) w[k] = 0;
   }
 }
 
@@ -139,7 +141,8 @@ function measureOne(s: Spectrum, z: number, p: PlannedLine, plan: readonly Plann
   const win = pixelWindow(s, obsA - halfA, obsA + halfA);
   const w = Float64Array.from(win.w);
   maskNeighbours(win.xA, w, z, p, plan);
-  const nGood = w.reduce((n, v) => n + (v > 0 ? 1 : 0), 0);
+  let nGood = 0;
+  for (let k = 0; k < w.length; k++) if (w[k] > 0) nGood++;
   const kFrom = lowerIndex(win.xA, obsA - searchA);
   const kTo = lowerIndex(win.xA, obsA + searchA) - 1;
   let nCore = 0;
@@ -151,10 +154,12 @@ function measureOne(s: Spectrum, z: number, p: PlannedLine, plan: readonly Plann
 
   // Starting continuum from the side bands (outer half of the window), clipped.
   const side = (k: number): boolean => Math.abs(win.xA[k] - obsA) > 0.5 * halfA;
-  const sideCount = win.xA.reduce((n, x, k) => n + (w[k] > 0 && side(k) ? 1 : 0), 0);
+  let sideCount = 0;
+  for (let k = 0; k < w.length; k++) if (w[k] > 0 && side(k)) sideCount++;
   const cont = fitClippedContinuum(win.xA, win.y, w, sideCount >= 3 ? side : () => true, obsA, 1);
   if (!cont) return null;
-  const resid = win.xA.map((x, k) => win.y[k] - continuumValue(cont, x));
+  const resid = new Float64Array(win.xA.length);
+  for (let k = 0; k < resid.length; k++) resid[k] = win.y[k] - continuumValue(cont, win.xA[k]);
 
   // Starting Gaussian from a matched filter over the centre search range.
   const sigmas = profile.startFwhmKms.map((f) => Math.max(0.8 * pixA, ((f / C_KMS) * obsA) / FWHM_PER_SIGMA));

@@ -66,16 +66,34 @@ export function fitContinuum(
   span = span || 1;
   for (let deg = Math.min(degree, idx.length - 1); deg >= 0; deg--) {
     const m = deg + 1;
-    const a = Array.from({ length: m }, () => new Array<number>(m).fill(0));
-    const b = new Array<number>(m).fill(0);
+    // Sums of w t^p (p = 0..4) and w t^p y (p = 0..2), formed term by term as w * t^i * t^j.
+    let a00 = 0, a01 = 0, a02 = 0, a11 = 0, a12 = 0, a22 = 0, b0 = 0, b1 = 0, b2 = 0;
     for (const k of idx) {
       const t = (xA[k] - xRef) / span;
-      const pw = [1, t, t * t];
-      for (let i = 0; i < m; i++) {
-        b[i] += w[k] * pw[i] * y[k];
-        for (let j = 0; j < m; j++) a[i][j] += w[k] * pw[i] * pw[j];
+      const t2 = t * t;
+      const wk = w[k];
+      const yk = y[k];
+      b0 += wk * 1 * yk;
+      a00 += wk * 1 * 1;
+      if (m > 1) {
+        b1 += wk * t * yk;
+        a01 += wk * 1 * t;
+        a11 += wk * t * t;
+      }
+      if (m > 2) {
+        b2 += wk * t2 * yk;
+        a02 += wk * 1 * t2;
+        a12 += wk * t * t2;
+        a22 += wk * t2 * t2;
       }
     }
+    const full = [
+      [a00, a01, a02],
+      [a01, a11, a12],
+      [a02, a12, a22],
+    ];
+    const a = full.slice(0, m).map((row) => row.slice(0, m));
+    const b = [b0, b1, b2].slice(0, m);
     // Reject a nearly singular system (all points at one x, say) and try a lower degree.
     const sol = solveSmall(a, b);
     if (sol && sol.every(Number.isFinite) && (deg === 0 || a[m - 1][m - 1] > 1e-10 * a[0][0])) {

@@ -64,9 +64,16 @@ export function locateFeature(spectrum: Spectrum, clickA: number, halfWindowA?: 
   const wl = spectrum.wavelengthA;
   if (!(clickA >= wl[0] && clickA <= wl[wl.length - 1])) return null;
   const pix = pixelWidthAt(spectrum, clickA);
-  const h = halfWindowA ?? Math.max(10 * pix, 0.004 * clickA);
-  // Kernel sigmas of 1 to 32 pixels, up to two thirds of the search half-width.
-  return locateWith(spectrum, clickA, h, KERNEL_PIXELS.map((n) => n * pix).filter((s, i) => i === 0 || s <= h / 1.5));
+  const kernels = (h: number) => KERNEL_PIXELS.map((n) => n * pix).filter((s, i) => i === 0 || s <= h / 1.5);
+  if (halfWindowA !== undefined) return locateWith(spectrum, clickA, halfWindowA, kernels(halfWindowA));
+  // Narrow search first (about +-1200 km/s), then wider ones so that a click on a
+  // broad quasar line (FWHM several thousand km/s) still finds it.
+  const h0 = Math.max(10 * pix, 0.004 * clickA);
+  for (const h of [h0, 3 * h0, 7 * h0]) {
+    const found = locateWith(spectrum, clickA, h, kernels(h));
+    if (found) return found;
+  }
+  return null;
 }
 
 /** Kernel sigmas tried by the feature finder, pixels. */
@@ -208,6 +215,9 @@ export const SUGGEST_Z_MAX = 7;
  * the position tolerance) are not counted, and its pixels are kept out of the
  * other tests' continuum.
  */
+/** FWHM above which a clicked feature is taken as a quasar broad line, km/s. */
+export const BROAD_FEATURE_KMS = 1500;
+
 export function suggestLines(
   spectrum: Spectrum, centreA: number, kind: 'emission' | 'absorption', options?: { zMin?: number; zMax?: number },
 ): LineSuggestion[] {
@@ -226,19 +236,26 @@ export function suggestLines(
   // The clicked feature itself is kept out of every test: +-5 sigma (where a
   // Gaussian has fallen to 4e-6 of its peak), at least 1000 km/s.
   const exclude = { centreA, halfA: (Math.max((5 * fwhmKms) / FWHM_PER_SIGMA, 1000) / C_KMS) * centreA };
+  // A feature broader than narrow lines ever are (FWHM > 1500 km/s; common
+  // practice puts the broad-line boundary near 1000-2000 km/s) can only be a
+  // quasar broad line, and only other broad lines can be expected at its width.
+  const broad = fwhmKms > BROAD_FEATURE_KMS;
   const scored: (LineSuggestion & { strength: number; snrSum: number })[] = [];
   for (const hyp of LINES) {
     if (hyp.kind !== kind) continue;
+    if (broad && !hyp.roles.includes('qso-broad')) continue;
     const z = centreA / hyp.restA - 1;
     if (!(z >= zMin && z <= zMax)) continue;
     const supportingIds: string[] = [];
     let snrSum = 0;
     for (const other of LINES) {
       if (other.id === hyp.id) continue;
+      if (broad && !other.roles.includes('qso-broad')) continue;
       const lamA = (1 + z) * other.restA;
       const sigmaA = Math.max(0.8 * pix, ((fwhmKms / C_KMS) * lamA) / FWHM_PER_SIGMA);
       const tolA = Math.max(1.5 * pix, 0.5 * FWHM_PER_SIGMA * sigmaA, (200 / C_KMS) * lamA);
-      if (lamA - 3 * sigmaA - tolA < lamMin || lamA + 3 * sigmaA + tolA > lamMax) continue;
+      // The predicted line and one sigma either side must lie inside the data.
+      if (lamA - sigmaA - tolA < lamMin || lamA + sigmaA + tolA > lamMax) continue;
       if (Math.abs(lamA - centreA) < exclude.halfA + tolA) continue;
       const snr = featureSnrAt(spectrum, lamA, sigmaA, other.kind === 'emission' ? 1 : -1, tolA, exclude);
       if (snr >= SUPPORT_SNR) {

@@ -572,6 +572,7 @@ function chi2Schur(sums: ScanSums, c: ScanConstants, H: Float64Array, allowed?: 
  */
 function chi2Ortho(sums: ScanSums, c: ScanConstants, allowed?: (Uint8Array | null)[]): ScanResult {
   const { K, P, nShift } = sums;
+  if (K === 1) return chi2OrthoOne(sums, c, allowed);
   const solver = makeSubsetSolver(K);
   const chi2 = new Float64Array(nShift);
   const nActive = new Uint8Array(nShift);
@@ -614,6 +615,37 @@ function chi2Ortho(sums: ScanSums, c: ScanConstants, allowed?: (Uint8Array | nul
     let act = 0;
     for (let j = 0; j < K; j++) if (amp[j] > 0) act++;
     nActive[si] = act;
+  }
+  return { sMin: sums.sMin, chi2, nActive };
+}
+
+/** chi2Ortho for a single template: a = r / S when positive (the one-variable NNLS), else 0. */
+function chi2OrthoOne(sums: ScanSums, c: ScanConstants, allowed?: (Uint8Array | null)[]): ScanResult {
+  const { P, nShift } = sums;
+  const chi2 = new Float64Array(nShift);
+  const nActive = new Uint8Array(nShift);
+  let base = c.fwf;
+  for (let a = 0; a < P; a++) base -= c.pf[a] * c.pf[a];
+  const tiny = 1e-10 * Math.max(c.sumW, 1e-300);
+  const tf = sums.tf[0];
+  const tp = sums.tp;
+  const d = sums.tt[0];
+  const al = allowed?.[0];
+  for (let si = 0; si < nShift; si++) {
+    chi2[si] = base;
+    if (!d || !(d[si] > tiny) || (al && !al[si])) continue;
+    let r = tf[si];
+    let S = d[si];
+    for (let a = 0; a < P; a++) {
+      const v = tp[a][si];
+      r -= v * c.pf[a];
+      S -= v * v;
+    }
+    // The one-variable case of makeSubsetSolver: S > 0 is its pivot test, r > 0 a positive amplitude.
+    if (r > 0 && S > 0) {
+      chi2[si] = base - (r * r) / S;
+      nActive[si] = 1;
+    }
   }
   return { sMin: sums.sMin, chi2, nActive };
 }

@@ -112,6 +112,23 @@ describe('scan', () => {
     for (let s = 0; s < small.length; s++) expect(Math.abs(small[s] - smallRef[s]) / smallRef[s]).toBeLessThan(1e-9);
   });
 
+  it('one template in the orthonormal basis (the passive-galaxy scan) equals the general NNLS at every shift', () => {
+    const fam = templateFamilies().find((f) => f.id === 'galaxy-passive')!;
+    const vecs = fam.scanVectors.map((v) => binRest(v, 3));
+    expect(vecs.length).toBe(1);
+    const data = randomData(900, 11870, 13);
+    const q = weightedOrthonormalBasis(data, 5)!;
+    const cq = scanConstants(data, 5, q);
+    const sums = scanSumsDirect(data, vecs, 0, 400, 5, q);
+    const fast = chi2FromSums(sums, cq);
+    const slow = chi2FromSumsGeneral(scanSumsDirect(data, vecs, 0, 400, 5), scanConstants(data, 5));
+    for (let s = 0; s < fast.chi2.length; s++) {
+      // round-off only (keep-the-slow-version rule)
+      expect(Math.abs(fast.chi2[s] - slow.chi2[s]) / slow.chi2[s]).toBeLessThan(1e-9);
+      expect(fast.nActive[s]).toBe(slow.nActive[s]);
+    }
+  });
+
   it('polyBasis gives Legendre P0..P2 at the ends and middle', () => {
     // P2(x) = (3x^2 - 1)/2 (Legendre, standard)
     const p = polyBasis(5, 3);

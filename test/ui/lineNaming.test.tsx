@@ -31,17 +31,27 @@ describe('LineNamingList', () => {
     expect(options[0].textContent).toContain('3 other lines agree');
   });
 
+  it('with the fit curves, puts the line whose redshift the templates fit best first', () => {
+    // Invented curve: the fit is best (delta chi2 0) at the Mg II redshift, 400 elsewhere.
+    const zMg = 5000 / 2798.75 - 1;
+    const z = Float64Array.from({ length: 601 }, (_, i) => i * 0.01);
+    const curves = [{ family: 'qso', z, deltaChi2: z.map((v) => (Math.abs(v - zMg) < 0.02 ? 0 : 400)) }];
+    const ranked = rankSuggestions([suggestions[0], suggestions[2], suggestions[1]], curves);
+    expect(ranked[0].lineId).toBe('MgII');
+    expect(ranked[0].fitDeltaChi2).toBeLessThan(ranked[1].fitDeltaChi2);
+  });
+
   it('a number key or arrows and Enter choose a line', () => {
     const onChoose = vi.fn();
     render(<LineNamingList answer={answer} onChoose={onChoose} onClose={() => {}} />);
     const list = screen.getByRole('listbox', { name: 'Possible lines' });
     expect(document.activeElement).toBe(list);
     fireEvent.keyDown(list, { key: '2' });
-    expect(onChoose).toHaveBeenLastCalledWith(suggestions[0]);
+    expect(onChoose).toHaveBeenLastCalledWith(expect.objectContaining(suggestions[0]));
     fireEvent.keyDown(list, { key: 'ArrowDown' });
     fireEvent.keyDown(list, { key: 'ArrowDown' });
     fireEvent.keyDown(list, { key: 'Enter' });
-    expect(onChoose).toHaveBeenLastCalledWith(suggestions[3]);
+    expect(onChoose).toHaveBeenLastCalledWith(expect.objectContaining(suggestions[3]));
   });
 
   it('says so when no feature was found', () => {

@@ -5,12 +5,25 @@
  */
 import { useEffect, useRef, useState, type KeyboardEvent } from 'react';
 import type { LineSuggestion } from '../../core/engine/identify';
+import type { ChiSquareCurve } from '../../core/types';
+import { deltaChi2At } from '../../core/engine/curveAt';
 import type { FeatureAnswer } from '../../worker/fitWorkerApi';
 import { fmtNum, fmtZ } from '../format';
 
-/** Best first: more supporting lines first, the engine's order among equals. */
-export function rankSuggestions(s: readonly LineSuggestion[]): LineSuggestion[] {
-  return s.map((x, i) => ({ x, i })).sort((a, b) => b.x.supporting - a.x.supporting || a.i - b.i).map((o) => o.x);
+export type RankedSuggestion = LineSuggestion & { fitDeltaChi2: number };
+
+/**
+ * Best first. With the automatic fit's chi-square curves: the lowest fit
+ * delta chi-square at the implied z first (the whole template fits there),
+ * then more supporting lines; without curves: more supporting lines first,
+ * the engine's order among equals.
+ */
+export function rankSuggestions(s: readonly LineSuggestion[], curves: readonly ChiSquareCurve[] = []): RankedSuggestion[] {
+  const withFit = s.map((x, i) => ({ x: { ...x, fitDeltaChi2: deltaChi2At(curves, x.z) }, i }));
+  const fitKey = (v: number) => (Number.isFinite(v) ? v : Infinity);
+  return withFit
+    .sort((a, b) => fitKey(a.x.fitDeltaChi2) - fitKey(b.x.fitDeltaChi2) || b.x.supporting - a.x.supporting || a.i - b.i)
+    .map((o) => o.x);
 }
 
 export interface LineNamingListProps {
@@ -18,10 +31,12 @@ export interface LineNamingListProps {
   onChoose: (s: LineSuggestion) => void;
   onClose: () => void;
   busy?: boolean;
+  /** The automatic fit's chi-square curves, to rank the lines by fit quality at their z. */
+  curves?: readonly ChiSquareCurve[];
 }
 
-export function LineNamingList({ answer, onChoose, onClose, busy = false }: LineNamingListProps) {
-  const ranked = rankSuggestions(answer.suggestions);
+export function LineNamingList({ answer, onChoose, onClose, busy = false, curves = [] }: LineNamingListProps) {
+  const ranked = rankSuggestions(answer.suggestions, curves);
   const [active, setActive] = useState(0);
   const list = useRef<HTMLUListElement>(null);
   useEffect(() => {
@@ -77,6 +92,7 @@ export function LineNamingList({ answer, onChoose, onClose, busy = false }: Line
               <span className="opt-support">
                 {s.supporting} other line{s.supporting === 1 ? '' : 's'} agree
               </span>
+              {Number.isFinite(s.fitDeltaChi2) ? <span className="opt-fit">fit Δχ² {fmtNum(s.fitDeltaChi2, 1)}</span> : null}
             </li>
           ))}
         </ul>

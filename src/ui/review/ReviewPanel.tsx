@@ -417,7 +417,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
 
       {naming &&
         (naming.answer ? (
-          <LineNamingList answer={naming.answer} onChoose={chooseLine} onClose={() => setNaming(null)} busy={busy !== null} />
+          <LineNamingList answer={naming.answer} onChoose={chooseLine} onClose={() => setNaming(null)} busy={busy !== null} curves={result?.curves ?? []} />
         ) : (
           <p className="muted" role="status">
             Looking for a feature near {fmtNum(naming.clickA, 1)} Å…

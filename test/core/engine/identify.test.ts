@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { featureSnrAt, locateFeature, suggestLines } from '../../../src/core/engine/identify';
+import { readSpectrum } from '../../../src/core/io/readSpectrum';
 import { LINES, lineById } from '../../../src/core/lines/catalogue';
 import { C_KMS, parseSimpleCsv, synthSpectrum, type SynthLine } from './lines/testKit';
 
@@ -137,5 +138,28 @@ describe('featureSnrAt(spectrum, lambdaA, sigmaA, sign, toleranceA)', () => {
       }
     }
     expect(falseHits).toBe(0);
+  });
+});
+
+describe('a broad quasar line (demo spectrum MRX-0243; truth: qso at z = 0.98, sample-spectra/truth.csv)', () => {
+  const bytes = new Uint8Array(readFileSync(new URL('../../../sample-spectra/mrx-0243.txt', import.meta.url)));
+  const spec = readSpectrum(bytes, 'mrx-0243.txt');
+  const zTrue = 0.98;
+  const mgObs = (1 + zTrue) * lineById('MgII')!.restA;
+
+  it('is found from a click near its peak, with a broad width', () => {
+    const f = locateFeature(spec, mgObs + 5)!;
+    expect(f).not.toBeNull();
+    expect(f.kind).toBe('emission');
+    expect(Math.abs(f.centreA - mgObs)).toBeLessThan(10);
+    expect((f.fwhmA / f.centreA) * C_KMS).toBeGreaterThan(1500); // broad: FWHM > 1000-2000 km/s (common practice)
+  });
+
+  it('is offered only broad-line identifications, Mg II among them at the true z', () => {
+    const f = locateFeature(spec, mgObs + 5)!;
+    const s = suggestLines(spec, f.centreA, f.kind);
+    expect(s.every((x) => lineById(x.lineId)!.roles.includes('qso-broad'))).toBe(true);
+    const mg = s.find((x) => x.lineId === 'MgII')!;
+    expect(Math.abs(mg.z - zTrue) / (1 + zTrue)).toBeLessThan(0.003);
   });
 });

@@ -315,6 +315,17 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
   const has = new Uint8Array(K);
   const span = new Int32Array(2);
   for (let j = 0; j < K; j++) {
+    // An emission vector counts only when one of its line centres is inside
+    // the data; otherwise it is left out of the solve, so its sums are not needed.
+    const pk = geoms[j].peaksPix;
+    if (pk) {
+      let inside = false;
+      for (const kp of pk) {
+        const i = kp + s - data.k0;
+        if (i >= PEAK_MARGIN_PIX && i <= nPix - 1 - PEAK_MARGIN_PIX) inside = true;
+      }
+      if (!inside) continue;
+    }
     if (!fillColumn(ctx, geoms[j], s, cols[j], span)) continue;
     has[j] = 1;
     spans[2 * j] = span[0];
@@ -385,17 +396,6 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
       M[r * n + P + k] = sum;
       M[(P + k) * n + r] = sum;
     }
-  }
-  // An emission vector counts only when one of its line centres is inside the data.
-  for (let j = 0; j < K; j++) {
-    const pk = geoms[j].peaksPix;
-    if (!pk || !has[j]) continue;
-    let inside = false;
-    for (const kp of pk) {
-      const i = kp + s - data.k0;
-      if (i >= PEAK_MARGIN_PIX && i <= nPix - 1 - PEAK_MARGIN_PIX) inside = true;
-    }
-    if (!inside) M[(P + j) * n + P + j] = 0;
   }
   return solveFull(ctx, family, s, M, b, fixedActive);
 }

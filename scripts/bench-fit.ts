@@ -12,6 +12,8 @@ export interface BenchFitResult {
   count: number;
   seconds: number;
   spectraPerSecond: number;
+  /** Process CPU time per spectrum, ms (includes garbage collection on helper threads; less sensitive than wall time to other load on a shared machine). */
+  cpuMsPerSpectrum: number;
   peakRssMB: number;
   meanPixels: number;
 }
@@ -24,17 +26,21 @@ export function benchFit(count = 1000, seed = 1, options: FitOptions = {}): Benc
   // warm up the JIT and the template caches on a few spectra
   for (let i = 0; i < Math.min(5, sims.length); i++) fitSpectrum(sims[i].spectrum, options);
   let peak = process.memoryUsage().rss;
+  const cpu0 = process.cpuUsage();
   const t0 = performance.now();
   for (let i = 0; i < sims.length; i++) {
     fitSpectrum(sims[i].spectrum, options);
     if (i % 50 === 0) peak = Math.max(peak, process.memoryUsage().rss);
   }
   const seconds = (performance.now() - t0) / 1000;
+  const cpu = process.cpuUsage(cpu0);
   peak = Math.max(peak, process.memoryUsage().rss);
-  const out = { count, seconds, spectraPerSecond: count / seconds, peakRssMB: peak / 2 ** 20, meanPixels: pixels / count };
+  const out = {
+    count, seconds, spectraPerSecond: count / seconds, cpuMsPerSpectrum: (cpu.user + cpu.system) / 1000 / count, peakRssMB: peak / 2 ** 20, meanPixels: pixels / count,
+  };
   console.log(
     `${count} spectra of ~${Math.round(out.meanPixels)} pixels in ${seconds.toFixed(2)} s: ` +
-      `${out.spectraPerSecond.toFixed(1)} spectra/s single-threaded; peak RSS ${out.peakRssMB.toFixed(0)} MB`,
+      `${out.spectraPerSecond.toFixed(1)} spectra/s single-threaded, ${out.cpuMsPerSpectrum.toFixed(1)} ms CPU each; peak RSS ${out.peakRssMB.toFixed(0)} MB`,
   );
   return out;
 }

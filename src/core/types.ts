@@ -84,7 +84,7 @@ export interface Candidate {
   z: number;
   /** 1-sigma error from the chi-square curvature, scaled by the reduced chi-square. */
   zErr: number;
-  /** Template family id, e.g. 'qso', 'galaxy-sf', 'galaxy-passive', 'star-A'. */
+  /** Template family id, e.g. 'qso', 'galaxy-sf', 'galaxy-passive', 'star'. */
   family: string;
   class: SpectrumClass;
   chi2: number;

@@ -333,6 +333,11 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
   }
   const w = data.ivar;
   const { wf, wp, forestTrans } = ctx;
+  // Stars and passive galaxies: every vector spans the same pixels; then all
+  // template-template sums come from one pass (the same products).
+  let sameSpan = K >= 2 && K <= 4;
+  for (let j = 0; j < K && sameSpan; j++) sameSpan = has[j] === 1 && spans[2 * j] === spans[0] && spans[2 * j + 1] === spans[1];
+  if (sameSpan) templateSumsOnePass(cols, K, spans[0], spans[1], w, M, n, P);
   for (let j = 0; j < K; j++) {
     if (!has[j]) continue;
     const v = cols[j];
@@ -386,6 +391,7 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
         M[a * n + r] = sum;
       }
     }
+    if (sameSpan) continue;
     for (let k = j; k < K; k++) {
       if (!has[k]) continue;
       const from = Math.max(i0, spans[2 * k]);
@@ -398,6 +404,49 @@ export function evaluateFull(ctx: RefineContext, family: TemplateFamily, s: numb
     }
   }
   return solveFull(ctx, family, s, M, b, fixedActive);
+}
+
+/** sum_i w_i v_j(i) v_k(i) over [i0, i1] for all j <= k < K (2 <= K <= 4), into M (size n, template block at P). */
+function templateSumsOnePass(cols: Float64Array[], K: number, i0: number, i1: number, w: Float64Array, M: Float64Array, n: number, P: number): void {
+  const v0 = cols[0];
+  const v1 = cols[1];
+  const v2 = K > 2 ? cols[2] : cols[1];
+  const v3 = K > 3 ? cols[3] : cols[1];
+  let s00 = 0, s01 = 0, s02 = 0, s03 = 0, s11 = 0, s12 = 0, s13 = 0, s22 = 0, s23 = 0, s33 = 0;
+  if (K === 2) {
+    for (let i = i0; i <= i1; i++) {
+      const wi = w[i];
+      const a = wi * v0[i];
+      const b = wi * v1[i];
+      s00 += a * v0[i];
+      s01 += a * v1[i];
+      s11 += b * v1[i];
+    }
+  } else {
+    for (let i = i0; i <= i1; i++) {
+      const wi = w[i];
+      const x0 = v0[i], x1 = v1[i], x2 = v2[i], x3 = v3[i];
+      const a = wi * x0, b = wi * x1, c = wi * x2;
+      s00 += a * x0;
+      s01 += a * x1;
+      s02 += a * x2;
+      s03 += a * x3;
+      s11 += b * x1;
+      s12 += b * x2;
+      s13 += b * x3;
+      s22 += c * x2;
+      s23 += c * x3;
+      s33 += wi * x3 * x3;
+    }
+  }
+  const all = [s00, s01, s02, s03, s11, s12, s13, s22, s23, s33];
+  const at = (j: number, k: number) => all[j * 4 - (j * (j - 1)) / 2 + (k - j)];
+  for (let j = 0; j < K; j++)
+    for (let k = j; k < K; k++) {
+      const v = at(j, k);
+      M[(P + j) * n + P + k] = v;
+      M[(P + k) * n + P + j] = v;
+    }
 }
 
 /**

@@ -11,6 +11,7 @@
  *
  *   npx tsx scripts/bench-browser.ts [--fit 1000] [--held 5000] [--skip-held]
  */
+import { defaultPoolSize } from '../src/worker/pool';
 import { readFileSync, readdirSync, writeFileSync, mkdirSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -306,8 +307,8 @@ export async function benchBrowser(options: BrowserBenchOptions = {}): Promise<v
     const a = writeBatch(join(tmp, 'fit'), nFit, FIT_GRID, 'BENCH');
     {
       const { page, cdp, pid } = await open('fit');
-      const pool = await page.evaluate(() => Math.max(1, (navigator.hardwareConcurrency || 2) - 1));
-      log(`    Chromium with ${pool} fit worker(s) in the page's pool (one per core, leaving one for the page)`);
+      const cores = await page.evaluate(() => navigator.hardwareConcurrency);
+      log(`    Chromium with ${defaultPoolSize(cores)} fit worker(s) in the page's pool (${cores} cores; see defaultPoolSize)`);
       const mem = sampleMemory(cdp, pid);
       const t = await timeIntake(page, a.paths, 900_000);
       const peaks = await mem.stop();

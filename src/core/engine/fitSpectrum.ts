@@ -25,6 +25,7 @@ import { binRest, type RestArray } from './restArray';
 import { dataSpectra, fftSizeFor, scanConstants, scanSmall, scanFFT, weightedOrthonormalBasis, type DataSpectra, type ScanConstants, type ScanData } from './scan';
 import { TEMPLATE_SET_ID, templateFamilies, type TemplateFamily } from './templates';
 import { ENGINE_VERSION } from './version';
+import { failedResult } from '../failedResult';
 import { parabolaVertex } from './parabola';
 
 /**
@@ -357,25 +358,12 @@ function curvesOf(scans: FamilyScan[]): ChiSquareCurve[] {
   });
 }
 
+/** A failed fit that still carries what was read (size, range, header facts). */
 function failed(spectrum: Spectrum, message: string): FitResult {
   const wl = spectrum.wavelengthA;
   return {
-    file: spectrum.file,
-    status: 'failed',
-    error: message.replace(/[\r\n]+/g, ' ').trim(),
-    candidates: [],
-    z: NaN,
-    zErr: NaN,
-    class: 'unknown',
-    score: 0,
-    confidence: 'none',
-    chi2Gap: NaN,
-    nFeatures: 0,
-    curves: [],
-    lines: [],
+    ...failedResult(spectrum.file, message),
     noiseEstimated: spectrum.ivar === null,
-    templateSet: TEMPLATE_SET_ID,
-    engineVersion: ENGINE_VERSION,
     input: { nPix: wl.length, lambdaMinA: wl[0], lambdaMaxA: wl[wl.length - 1], medianSnr: NaN, meta: spectrum.meta, format: spectrum.format },
   };
 }

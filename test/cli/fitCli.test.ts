@@ -88,4 +88,16 @@ describe('npm run fit on sample-spectra/', () => {
     expect(rows.find((r) => r.file.endsWith('no-such-file.fits'))!.error).toMatch(/no such file/);
     expect(rows.find((r) => r.file.endsWith('mrx-0877.csv'))!.error).toBe('');
   }, 60_000);
+
+  it('marks a file that runs past its time limit as failed, replaces the worker and finishes the batch', () => {
+    // 0.05 s is far less than a worker needs to start, so every file runs out of time.
+    const files = ['sample-spectra/mrx-0877.csv', 'sample-spectra/mrx-0886.fits', 'sample-spectra/mrx-0136.fits'];
+    const text = fit([...files, '--out', join(tmp, 'timeout.csv'), '--jobs', '1', '--time-limit', '0.05']);
+    const rows = parseCatalogueCsv(text).rows;
+    expect(rows.map((r) => r.file)).toEqual([...files].sort());
+    for (const r of rows) {
+      expect(r.error).toMatch(/no result within 0\.05 s/);
+      expect(r.z).toBe('');
+    }
+  }, 60_000);
 });

@@ -191,7 +191,7 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
     expect(pick).toBeLessThan(9);
     await page.screenshot({ path: artifactPath('line-naming.png') });
     await page.keyboard.press(String(pick + 1));
-    await expect.poll(() => solutionText(page), { timeout: 60_000 }).toContain(`set by: line ${line!.id} at`);
+    await expect.poll(() => solutionText(page), { timeout: 60_000 }).toContain(`set by: line ${label} at`);
     const lineZ = (await page.getByTestId('solution-z').textContent())!;
     expect(Math.abs(Number(lineZ) - truth.z)).toBeLessThan(0.01); // the simulated redshift (truth.csv), within the width of a broad line
     made.push({ objectId: current, state: 'changed', howSet: 'line', shownZ: lineZ, setBy: await setByOf(page) });

@@ -75,7 +75,7 @@ describe('naming a line in the review panel', () => {
     const list = await screen.findByRole('listbox', { name: 'Possible lines' });
     expect(review.nameFeature).toHaveBeenCalledWith(expect.any(String), 5000);
     fireEvent.click(within(list).getByText('Mg II'));
-    await screen.findByText(/line MgII at 5000\.4/);
+    await screen.findByText(/line Mg II at 5000\.4/);
     expect(review.refitNear).toHaveBeenCalledWith(expect.any(String), suggestions[1].z);
     act(() => void fireEvent.keyDown(window, { key: 'a' }));
     await waitUntil(() => !!session.getSnapshot().rows[0].decision, 'decision');

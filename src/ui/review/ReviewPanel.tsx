@@ -7,7 +7,7 @@
 import { useCallback, useEffect, useImperativeHandle, useRef, useState, type Ref } from 'react';
 import type { CosmologyParams, FitResult, Grade, Spectrum } from '../../core/types';
 import type { LineSuggestion } from '../../core/engine/identify';
-import { LINES, SKY_REGIONS_A } from '../../core/lines/catalogue';
+import { LINES, SKY_REGIONS_A, lineById } from '../../core/lines/catalogue';
 import type { FeatureAnswer } from '../../worker/fitWorkerApi';
 import { useServices } from '../state/SessionContext';
 import type { Row } from '../state/session';
@@ -487,7 +487,7 @@ function describeHow(s: Solution): string {
     case 'candidate':
       return s.candidateIndex === null ? 'a runner-up candidate' : `candidate ${s.candidateIndex + 1}`;
     case 'line':
-      return s.lineId ? `line ${s.lineId.id} at ${s.lineId.observedA.toFixed(1)} Å` : 'line identification';
+      return s.lineId ? `line ${lineById(s.lineId.id)?.label ?? s.lineId.id} at ${s.lineId.observedA.toFixed(1)} Å` : 'line identification';
     case 'typed':
       return 'typed redshift';
     case 'refit':

@@ -231,7 +231,7 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
       .attr('y', 12)
       .attr('text-anchor', 'middle')
       .attr('font-size', 11)
-      .text('Δχ² (symlog)');
+      .text('Δχ², coarse scan (symlog)');
 
     // Legend along the top: a line sample in the family's colour and dash, and its name.
     const families = [...familyIndex.keys()];

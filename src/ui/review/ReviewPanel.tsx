@@ -439,6 +439,11 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
               height={180}
             />
           )}
+          {result && result.curves.length > 0 && (
+            <p className="muted small">
+              The curve comes from the fast, coarse scan over all redshifts; the table gives each candidate's Δχ² after refinement with the full model. Click the curve to refit near that z.
+            </p>
+          )}
         </div>
         <div className="decision-box" aria-label="Decision">
           <h3>Decision</h3>

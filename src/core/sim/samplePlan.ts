@@ -6,6 +6,7 @@
  */
 import type { SimClass } from './simulateSpectrum';
 import type { StarType } from './star';
+import type { FitsLayout } from './sampleFits';
 
 export const FIELD_NAME = 'Marrow Reach';
 export const FIELD_CODE = 'MRX';
@@ -14,25 +15,7 @@ export const FIELD_RA_DEG = 187.35;
 export const FIELD_DEC_DEG = 8.62;
 
 /** File layouts of the demo set; every layout the readers support appears at least twice. */
-export type SampleLayout =
-  | 'csv-ivar'
-  | 'csv-error'
-  | 'tsv'
-  | 'text-bare'
-  | 'text-nm-air'
-  | 'csv-mask'
-  | 'csv-gz'
-  | 'fits-wave-linear'
-  | 'fits-wave-cd'
-  | 'fits-wave-log'
-  | 'fits-dcflag-log10'
-  | 'fits-awav'
-  | 'fits-bitpix-64'
-  | 'fits-bitpix-16'
-  | 'fits-table-loglam'
-  | 'fits-table-wave'
-  | 'fits-table-arrays'
-  | 'fits-gz';
+export type SampleLayout = 'csv-ivar' | 'csv-error' | 'tsv' | 'text-bare' | 'text-nm-air' | 'csv-mask' | 'csv-gz' | FitsLayout;
 
 export interface PlannedObject {
   cls: SimClass;

@@ -26,9 +26,11 @@ export class CorrelationPlan {
 
   /**
    * Half spectra of two real signals (each zero-padded to the plan size;
-   * `b` may be omitted). Element i of a signal sits at position i.
+   * `b` may be omitted). Element i of a signal sits at position i. The
+   * results go into outA/outB when given (length L + 2 each; reused buffers
+   * spare the garbage collector), else into new arrays.
    */
-  forwardPair(a: Float64Array, b?: Float64Array): [HalfSpectrum, HalfSpectrum] {
+  forwardPair(a: Float64Array, b?: Float64Array, outA?: HalfSpectrum, outB?: HalfSpectrum): [HalfSpectrum, HalfSpectrum] {
     const L = this.size;
     const zin = this.bufIn;
     zin.fill(0);
@@ -37,8 +39,8 @@ export class CorrelationPlan {
     this.fft.transform(this.bufOut, zin);
     const Z = this.bufOut;
     const h = L / 2 + 1;
-    const A = new Float64Array(2 * h);
-    const B = new Float64Array(2 * h);
+    const A = outA ?? new Float64Array(2 * h);
+    const B = outB ?? new Float64Array(2 * h);
     for (let k = 0; k < h; k++) {
       const kk = k === 0 ? 0 : L - k;
       const zr = Z[2 * k];

@@ -181,7 +181,7 @@ function prepare(spectrum: Spectrum, options: FitOptions): Prepared | string {
     const L = fftSizeFor(data.flux.length, sHi - sLo + 1);
     let ds = dsCache.get(`${b}|${L}`);
     if (!ds) {
-      ds = dataSpectra(data, P, L, basisAt(b));
+      ds = dataSpectra(data, P, L, basisAt(b), `fit@${b}`);
       dsCache.set(`${b}|${L}`, ds);
     }
     const r = scanFFT(data, binnedScanVectors(family), sLo, sHi, P, `${family.id}@${b}`, ds, DLOG10 * b, constsAt(b));

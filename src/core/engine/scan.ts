@@ -315,38 +315,74 @@ export interface DataSpectra {
   w: HalfSpectrum;
 }
 
-export function dataSpectra(data: ScanData, P: number, L: number, basis?: Float64Array[]): DataSpectra {
+/**
+ * Buffers reused by dataSpectra between spectra when the caller names a slot
+ * (reuseKey): the signal scratch by length, the half spectra by slot.
+ */
+const signalScratch = new Map<number, Float64Array[]>();
+const dataSpectraPool = new Map<string, HalfSpectrum[]>();
+const DATA_POOL_MAX = 16;
+
+function scratchSignals(n: number, count: number): Float64Array[] {
+  let s = signalScratch.get(n);
+  if (!s) {
+    if (signalScratch.size >= DATA_POOL_MAX) signalScratch.delete(signalScratch.keys().next().value as number);
+    s = [];
+    signalScratch.set(n, s);
+  }
+  while (s.length < count) s.push(new Float64Array(n));
+  return s;
+}
+
+function pooledHalfSpectra(key: string, count: number, len: number): HalfSpectrum[] {
+  let s = dataSpectraPool.get(key);
+  if (!s) {
+    if (dataSpectraPool.size >= DATA_POOL_MAX) dataSpectraPool.delete(dataSpectraPool.keys().next().value as string);
+    s = [];
+    dataSpectraPool.set(key, s);
+  }
+  while (s.length < count) s.push(new Float64Array(len));
+  return s;
+}
+
+/**
+ * With `reuseKey`, the returned spectra live in a pool and are overwritten by
+ * the next call with the same key, size and P: a fit names one key per data
+ * set it scans (e.g. its binning) and is done with them before the next fit.
+ */
+export function dataSpectra(data: ScanData, P: number, L: number, basis?: Float64Array[], reuseKey?: string): DataSpectra {
   const plan = planOf(L);
   const n = data.flux.length;
   const poly = basis ?? polyBasis(n, P);
-  const signals: Float64Array[] = [];
-  const wf = new Float64Array(n);
-  for (let i = 0; i < n; i++) wf[i] = data.ivar[i] > 0 ? data.ivar[i] * data.flux[i] : 0;
-  signals.push(wf);
-  for (let a = 0; a < P; a++) {
-    const s = new Float64Array(n);
-    const pa = poly[a];
-    for (let i = 0; i < n; i++) s[i] = data.ivar[i] > 0 ? data.ivar[i] * pa[i] : 0;
-    signals.push(s);
-  }
   // The weights' spectrum: w q_0 scaled when q_0 is a constant, else its own transform.
   const c0 = P > 0 ? constantOf(poly[0]) : NaN;
-  if (!(c0 === c0)) {
-    const s = new Float64Array(n);
-    for (let i = 0; i < n; i++) s[i] = data.ivar[i] > 0 ? data.ivar[i] : 0;
-    signals.push(s);
+  const nSignals = 1 + P + (c0 === c0 ? 0 : 1);
+  const signals = reuseKey !== undefined ? scratchSignals(n, nSignals) : Array.from({ length: nSignals }, () => new Float64Array(n));
+  const wf = signals[0];
+  for (let i = 0; i < n; i++) wf[i] = data.ivar[i] > 0 ? data.ivar[i] * data.flux[i] : 0;
+  for (let a = 0; a < P; a++) {
+    const s = signals[1 + a];
+    const pa = poly[a];
+    for (let i = 0; i < n; i++) s[i] = data.ivar[i] > 0 ? data.ivar[i] * pa[i] : 0;
   }
+  if (!(c0 === c0)) {
+    const s = signals[1 + P];
+    for (let i = 0; i < n; i++) s[i] = data.ivar[i] > 0 ? data.ivar[i] : 0;
+  }
+  const h2 = L + 2;
+  const outs = reuseKey !== undefined ? pooledHalfSpectra(`${reuseKey}|${L}|${P}`, nSignals + 1, h2) : null;
   const spectra: HalfSpectrum[] = [];
-  for (let i = 0; i < signals.length; i += 2) {
-    const [A, B] = plan.forwardPair(signals[i], signals[i + 1]);
+  for (let i = 0; i < nSignals; i += 2) {
+    const [A, B] = plan.forwardPair(signals[i], i + 1 < nSignals ? signals[i + 1] : undefined, outs?.[i], outs?.[i + 1]);
     spectra.push(A);
-    if (i + 1 < signals.length) spectra.push(B);
+    if (i + 1 < nSignals) spectra.push(B);
   }
   let w: HalfSpectrum;
   if (c0 === c0) {
-    w = new Float64Array(spectra[1].length);
+    w = outs ? outs[nSignals] : new Float64Array(h2);
     const inv = 1 / c0;
-    for (let k = 0; k < w.length; k++) w[k] = spectra[1][k] * inv;
+    const s1 = spectra[1];
+    for (let k = 0; k < h2; k++) w[k] = s1[k] * inv;
   } else w = spectra[1 + P];
   return { L, wf: spectra[0], wp: spectra.slice(1, 1 + P), w };
 }

@@ -112,6 +112,26 @@ describe('scan', () => {
     for (let s = 0; s < small.length; s++) expect(Math.abs(small[s] - smallRef[s]) / smallRef[s]).toBeLessThan(1e-9);
   });
 
+  it('dataSpectra with a reuse slot gives the same spectra as fresh arrays, and the slot is overwritten by the next call', () => {
+    const P = 5;
+    const a = randomData(700, 11870, 21);
+    const b = randomData(700, 11900, 22);
+    const L = fftSizeFor(a.flux.length, 600);
+    const qa = weightedOrthonormalBasis(a, P)!;
+    const qb = weightedOrthonormalBasis(b, P)!;
+    const fresh = dataSpectra(a, P, L, qa);
+    const pooled = dataSpectra(a, P, L, qa, 'test-slot');
+    // the same arithmetic into other buffers: bit for bit equal (self-consistency)
+    expect(Array.from(pooled.wf)).toEqual(Array.from(fresh.wf));
+    expect(Array.from(pooled.w)).toEqual(Array.from(fresh.w));
+    for (let k = 0; k < P; k++) expect(Array.from(pooled.wp[k])).toEqual(Array.from(fresh.wp[k]));
+    const wfA = Array.from(pooled.wf);
+    const again = dataSpectra(b, P, L, qb, 'test-slot');
+    expect(again.wf).toBe(pooled.wf);
+    expect(Array.from(again.wf)).toEqual(Array.from(dataSpectra(b, P, L, qb).wf));
+    expect(Array.from(again.wf)).not.toEqual(wfA);
+  });
+
   it('one template in the orthonormal basis (the passive-galaxy scan) equals the general NNLS at every shift', () => {
     const fam = templateFamilies().find((f) => f.id === 'galaxy-passive')!;
     const vecs = fam.scanVectors.map((v) => binRest(v, 3));

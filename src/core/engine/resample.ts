@@ -31,8 +31,12 @@ const MIN_COVERAGE = 0.5;
 
 /** Input pixel edges in Angstrom: midpoints between centres, mirrored at the ends. */
 export function pixelEdgesA(wl: Float64Array): Float64Array {
+  return pixelEdgesInto(wl, new Float64Array(wl.length + 1));
+}
+
+/** pixelEdgesA into e (length >= n + 1; entries past n untouched). */
+function pixelEdgesInto(wl: Float64Array, e: Float64Array): Float64Array {
   const n = wl.length;
-  const e = new Float64Array(n + 1);
   for (let i = 1; i < n; i++) e[i] = 0.5 * (wl[i - 1] + wl[i]);
   e[0] = wl[0] - 0.5 * (wl[1] - wl[0]);
   e[n] = wl[n - 1] + 0.5 * (wl[n - 1] - wl[n - 2]);
@@ -42,8 +46,12 @@ export function pixelEdgesA(wl: Float64Array): Float64Array {
 
 /** Which input pixels carry information (mask clear, finite flux, positive ivar). */
 export function goodPixels(s: Spectrum): Uint8Array {
+  return goodPixelsInto(s, new Uint8Array(s.flux.length));
+}
+
+/** goodPixels into good (length >= n; entries past n untouched). */
+function goodPixelsInto(s: Spectrum, good: Uint8Array): Uint8Array {
   const n = s.flux.length;
-  const good = new Uint8Array(n);
   for (let i = 0; i < n; i++) {
     const ok = s.mask[i] === 0 && Number.isFinite(s.flux[i]) && (s.ivar === null || s.ivar[i] > 0);
     good[i] = ok ? 1 : 0;
@@ -59,21 +67,23 @@ export function goodPixels(s: Spectrum): Uint8Array {
 export function resampleToLogGrid(s: Spectrum, dlog10 = DLOG10): LogSpectrum {
   const wl = s.wavelengthA;
   const n = wl.length;
-  const good = goodPixels(s);
+  const good = goodPixelsInto(s, scratchGood(n));
   const noiseEstimated = s.ivar === null;
   const ivarIn = s.ivar ?? estimateIvar(s.flux, good);
-  const edges = pixelEdgesA(wl);
+  const edges = pixelEdgesInto(wl, scratchEdges(n + 1));
   const k0 = Math.round(Math.log10(wl[0]) / dlog10);
   const k1 = Math.round(Math.log10(wl[n - 1]) / dlog10);
   const m = k1 - k0 + 1;
   const flux = new Float64Array(m);
   const ivar = new Float64Array(m);
+  // Output edge e (between absolute pixels e - 1 and e) is 10^((e - 0.5) dlog10): from the thread's table when it covers them.
+  const tab = k0 >= 0 ? edgeTable(dlog10, k1 + 1) : null;
   let i = 0;
-  let hi = Math.pow(10, (k0 - 0.5) * dlog10);
+  let hi = tab ? tab[k0] : Math.pow(10, (k0 - 0.5) * dlog10);
   for (let j = 0; j < m; j++) {
     // Each output edge once: this pixel's lower edge is the last one's upper edge (same expression).
     const lo = hi;
-    hi = Math.pow(10, (k0 + j + 0.5) * dlog10);
+    hi = tab ? tab[k0 + j + 1] : Math.pow(10, (k0 + j + 0.5) * dlog10);
     while (i < n && edges[i + 1] <= lo) i++;
     let sumO = 0;
     let sumOF = 0;
@@ -92,6 +102,42 @@ export function resampleToLogGrid(s: Spectrum, dlog10 = DLOG10): LogSpectrum {
     }
   }
   return { k0, dlog10, flux, ivar, noiseEstimated };
+}
+
+/**
+ * Output pixel edges by absolute index, per pixel size, computed once per
+ * thread: entry e = 10^((e - 0.5) dlog10) (the same expression as computing
+ * it per spectrum). Grown on demand; null past MAX_EDGE_INDEX (then each
+ * spectrum computes its own).
+ */
+const edgeTables = new Map<number, Float64Array>();
+/** Largest absolute index kept in a table (10^(2e5 x 1e-4) A is far beyond any spectrum at the default size). */
+const MAX_EDGE_INDEX = 200_000;
+
+function edgeTable(dlog10: number, eMax: number): Float64Array | null {
+  if (eMax > MAX_EDGE_INDEX) return null;
+  let t = edgeTables.get(dlog10);
+  if (!t || t.length <= eMax) {
+    const len = Math.min(MAX_EDGE_INDEX + 1, Math.max(eMax + 1, Math.ceil(1.25 * (t?.length ?? 0))));
+    const next = new Float64Array(len);
+    for (let e = 0; e < len; e++) next[e] = Math.pow(10, (e - 0.5) * dlog10);
+    if (edgeTables.size >= 4) edgeTables.delete(edgeTables.keys().next().value as number);
+    edgeTables.set(dlog10, next);
+    t = next;
+  }
+  return t;
+}
+
+/** Input-side scratch (edges, good-pixel flags) reused between spectra: resampleToLogGrid keeps no reference to them. */
+let edgeScratch = new Float64Array(0);
+let goodScratch = new Uint8Array(0);
+function scratchEdges(len: number): Float64Array {
+  if (edgeScratch.length < len) edgeScratch = new Float64Array(len);
+  return edgeScratch;
+}
+function scratchGood(len: number): Uint8Array {
+  if (goodScratch.length < len) goodScratch = new Uint8Array(len);
+  return goodScratch;
 }
 
 /**

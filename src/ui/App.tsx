@@ -45,11 +45,21 @@ function Shell({ autoDemo, fetchFn }: { autoDemo: boolean; fetchFn?: typeof fetc
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [session]);
 
+  // Files of one drop handed over so far (a large drop arrives in parts).
+  const droppedSoFar = useRef(0);
   const addCollected = useCallback(
-    (c: Collected) => {
-      setNotices(c.skipped.length ? c.skipped.map((s) => `Skipped ${s}`) : []);
-      if (c.files.length) session.addFiles(c.files).catch((e: unknown) => setNotices((n) => [...n, `Could not store the files: ${(e as Error)?.message ?? e}`]));
-      else if (!c.skipped.length) setNotices(['No files found in what was dropped.']);
+    async (c: Collected) => {
+      const store = async () => {
+        if (!c.files.length) return;
+        droppedSoFar.current += c.files.length;
+        await session.addFiles(c.files).catch((e: unknown) => setNotices((n) => [...n, `Could not store the files: ${(e as Error)?.message ?? e}`]));
+      };
+      if (c.partial) return store();
+      const total = droppedSoFar.current + c.files.length;
+      droppedSoFar.current = 0;
+      setNotices(c.skipped.length ? c.skipped.map((s) => `Skipped ${s}`) : total === 0 ? ['No files found in what was dropped.'] : []);
+      await store();
+      droppedSoFar.current = 0;
     },
     [session],
   );

@@ -7,7 +7,8 @@ import { useRef, useState, type DragEvent } from 'react';
 import { collectFromDataTransfer, collectFromFileList, type Collected } from './collectFiles';
 
 export interface DropZoneProps {
-  onCollected: (c: Collected) => void;
+  /** Called with each part of a large drop (partial: true) and once at the end; reading waits for it. */
+  onCollected: (c: Collected) => Promise<void> | void;
   onDemo?: () => void;
   /** Large first-screen form, or a compact bar on the workbench. */
   compact?: boolean;
@@ -23,7 +24,7 @@ export function DropZone({ onCollected, onDemo, compact = false, busy = false }:
     e.preventDefault();
     setOver(false);
     // Entries must be taken inside the event; reading carries on afterwards.
-    void collectFromDataTransfer(e.dataTransfer).then(onCollected);
+    void collectFromDataTransfer(e.dataTransfer, onCollected).then(onCollected);
   };
 
   return (
@@ -67,7 +68,7 @@ export function DropZone({ onCollected, onDemo, compact = false, busy = false }:
         data-testid="file-input"
         onChange={(e) => {
           const list = e.currentTarget.files;
-          if (list && list.length) void collectFromFileList(list).then(onCollected);
+          if (list && list.length) void collectFromFileList(list, onCollected).then(onCollected);
           e.currentTarget.value = '';
         }}
       />
@@ -83,7 +84,7 @@ export function DropZone({ onCollected, onDemo, compact = false, busy = false }:
         aria-label="Spectrum folder"
         onChange={(e) => {
           const list = e.currentTarget.files;
-          if (list && list.length) void collectFromFileList(list).then(onCollected);
+          if (list && list.length) void collectFromFileList(list, onCollected).then(onCollected);
           e.currentTarget.value = '';
         }}
       />

@@ -15,29 +15,60 @@ export interface Collected {
   files: IncomingFile[];
   /** One line per file left out, with the reason. */
   skipped: string[];
+  /** True for a part handed over while reading goes on; the last call has it false or absent. */
+  partial?: boolean;
 }
 
-async function readFile(file: File, path: string, out: Collected): Promise<void> {
+/**
+ * Hands over files in parts of about this many bytes while a large drop is
+ * still being read, so the page never holds a whole night's data at once.
+ */
+export const PART_BYTES = 32 * 1024 * 1024;
+
+/** Receives each part; reading waits for it (so storage keeps pace with reading). */
+export type PartSink = (part: Collected) => Promise<void> | void;
+
+interface Reading extends Collected {
+  bufferedBytes: number;
+  sink?: PartSink;
+}
+
+async function readFile(file: File, path: string, out: Reading): Promise<void> {
   if (file.size > MAX_FILE_BYTES) {
     out.skipped.push(`${path}: larger than ${MAX_FILE_BYTES / 1024 / 1024} MB, not read`);
     return;
   }
   try {
-    out.files.push({ path, bytes: new Uint8Array(await file.arrayBuffer()) });
+    const bytes = new Uint8Array(await file.arrayBuffer());
+    out.files.push({ path, bytes });
+    out.bufferedBytes += bytes.length;
   } catch (e) {
     out.skipped.push(`${path}: could not be read (${(e as Error)?.message ?? e})`);
   }
+  if (out.sink && out.bufferedBytes >= PART_BYTES) {
+    const files = out.files.splice(0);
+    out.bufferedBytes = 0;
+    await out.sink({ files, skipped: [], partial: true });
+  }
 }
 
-/** Files from an <input type=file> (with or without webkitdirectory). */
-export async function collectFromFileList(list: FileList | readonly File[]): Promise<Collected> {
-  const out: Collected = { files: [], skipped: [] };
+function reading(sink?: PartSink): Reading {
+  return { files: [], skipped: [], bufferedBytes: 0, sink };
+}
+
+function finished(out: Reading): Collected {
+  return { files: out.files, skipped: out.skipped };
+}
+
+/** Files from an <input type=file> (with or without webkitdirectory); large picks arrive in parts through `sink`. */
+export async function collectFromFileList(list: FileList | readonly File[], sink?: PartSink): Promise<Collected> {
+  const out = reading(sink);
   for (const file of Array.from(list)) {
     const path = file.webkitRelativePath || file.name;
     if (SKIP_NAME.test(file.name)) continue;
     await readFile(file, path, out);
   }
-  return out;
+  return finished(out);
 }
 
 function fileOf(entry: FileSystemFileEntry): Promise<File> {
@@ -61,7 +92,7 @@ function readAllEntries(dir: FileSystemDirectoryEntry): Promise<FileSystemEntry[
   });
 }
 
-async function walk(entry: FileSystemEntry, out: Collected): Promise<void> {
+async function walk(entry: FileSystemEntry, out: Reading): Promise<void> {
   if (SKIP_NAME.test(entry.name)) return;
   const path = entry.fullPath.replace(/^\//, '') || entry.name;
   if (entry.isFile) {
@@ -82,7 +113,7 @@ async function walk(entry: FileSystemEntry, out: Collected): Promise<void> {
  * event itself (the DataTransfer empties afterwards), so call this
  * synchronously from the handler; the reading happens later.
  */
-export function collectFromDataTransfer(dt: DataTransfer): Promise<Collected> {
+export function collectFromDataTransfer(dt: DataTransfer, sink?: PartSink): Promise<Collected> {
   const entries: FileSystemEntry[] = [];
   const plainFiles: File[] = [];
   const items = dt.items ? Array.from(dt.items) : [];
@@ -97,9 +128,9 @@ export function collectFromDataTransfer(dt: DataTransfer): Promise<Collected> {
   }
   if (!items.length && dt.files) plainFiles.push(...Array.from(dt.files));
   return (async () => {
-    const out: Collected = { files: [], skipped: [] };
+    const out = reading(sink);
     for (const e of entries) await walk(e, out);
     for (const f of plainFiles) await readFile(f, f.name, out);
-    return out;
+    return finished(out);
   })();
 }

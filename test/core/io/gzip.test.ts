@@ -2,18 +2,10 @@ import { describe, expect, it } from 'vitest';
 import { gzipSync } from 'fflate';
 import { crc32Update, gunzipChecked, isGzip } from '../../../src/core/io/gzip';
 import { SpectrumReadError } from '../../../src/core/types';
+import { caught } from '../../helpers/caught';
 
 const enc = (s: string) => new TextEncoder().encode(s);
 
-function caught(f: () => unknown): SpectrumReadError {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(SpectrumReadError);
-    return e as SpectrumReadError;
-  }
-  throw new Error('expected a SpectrumReadError');
-}
 
 describe('crc32Update', () => {
   it('gives the standard check value CBF43926 for "123456789"', () => {

@@ -8,6 +8,7 @@ import { readTextSpectrum } from '../../../src/core/io/text';
 import { writeBinTableHdu, writeFitsFile } from '../../../src/core/io/fits/write';
 import { SpectrumReadError } from '../../../src/core/types';
 import { REAL_SPECTRA_DIR } from '../../helpers/manifest';
+import { caught } from '../../helpers/caught';
 
 // The text reader, wrapped so one test can make it throw something unexpected.
 vi.mock('../../../src/core/io/text', async (importOriginal) => {
@@ -18,15 +19,6 @@ vi.mock('../../../src/core/io/text', async (importOriginal) => {
 const enc = (s: string) => new TextEncoder().encode(s);
 const CSV = 'wavelength,flux,ivar\n4000,1,1\n4001,2,1\n4002,3,1\n';
 
-function caught(f: () => unknown): SpectrumReadError {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(SpectrumReadError);
-    return e as SpectrumReadError;
-  }
-  throw new Error('expected a SpectrumReadError');
-}
 
 /** A small FITS file: a binary table with loglam, flux and ivar columns, as survey files have. */
 function fitsTable(): Uint8Array {

@@ -2,20 +2,12 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { readTextSpectrum, MAX_LINE_CHARS, MAX_TEXT_BYTES } from '../../../src/core/io/text';
 import { SpectrumReadError } from '../../../src/core/types';
+import { caught } from '../../helpers/caught';
 
 const enc = (s: string) => new TextEncoder().encode(s);
 const read = (s: string, file = 'spec.csv') => readTextSpectrum(enc(s), file);
 const arr = (a: ArrayLike<number>) => Array.from(a);
 
-function caught(f: () => unknown): SpectrumReadError {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(SpectrumReadError);
-    return e as SpectrumReadError;
-  }
-  throw new Error('expected a SpectrumReadError');
-}
 
 describe('readTextSpectrum(bytes, file): layouts', () => {
   it('reads a CSV with a header naming wavelength, flux and ivar', () => {

@@ -3,6 +3,7 @@
  * for the tests; they check that the UI moves data, not science.
  */
 import type { Candidate, FitResult, ReviewDecision, Spectrum } from '../../src/core/types';
+import { failedResult } from '../../src/core/failedResult';
 
 export function makeCandidate(z: number, cls: Candidate['class'], deltaChi2: number): Candidate {
   return { z, zErr: 0.001, family: cls === 'qso' ? 'qso' : cls === 'star' ? 'star-A' : 'galaxy-sf', class: cls, chi2: 1000 + deltaChi2, dof: 990, deltaChi2, atEdge: false };
@@ -32,19 +33,7 @@ export function makeResult(file: string, over: Partial<FitResult> = {}): FitResu
 }
 
 export function makeFailed(file: string, error: string): FitResult {
-  return makeResult(file, {
-    status: 'failed',
-    error,
-    candidates: [],
-    z: NaN,
-    zErr: NaN,
-    class: 'unknown',
-    score: 0,
-    confidence: 'none',
-    chi2Gap: NaN,
-    curves: [],
-    input: { nPix: 0, lambdaMinA: NaN, lambdaMaxA: NaN, medianSnr: NaN, meta: {}, format: '' },
-  });
+  return failedResult(file, error);
 }
 
 export function makeDecision(file: string, over: Partial<ReviewDecision> = {}): ReviewDecision {

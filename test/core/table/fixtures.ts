@@ -5,6 +5,7 @@
 import type { Candidate, FitResult, ReviewDecision } from '../../../src/core/types';
 import { DEFAULT_COSMOLOGY } from '../../../src/core/cosmology';
 import type { ExportMeta } from '../../../src/core/table';
+import { failedResult as pipelineFailedResult } from '../../../src/core/failedResult';
 
 function candidate(z: number, cls: Candidate['class'], family: string, chi2: number, best: number): Candidate {
   return { z, zErr: 0.00031, family, class: cls, chi2, dof: 3800, deltaChi2: chi2 - best, atEdge: false };
@@ -40,27 +41,9 @@ export function okResult(over: Partial<FitResult> = {}): FitResult {
   };
 }
 
-/** The shape the pipeline gives an unreadable file: NaN numbers, nPix 0. */
+/** The shape the pipeline gives an unreadable file (src/core/failedResult.ts), with this fixture set's provenance. */
 export function failedResult(file = 'night2/ld-0099.fits', error = 'night2/ld-0099.fits (HDU 1): NAXIS1 claims 2147483648 pixels'): FitResult {
-  return {
-    file,
-    status: 'failed',
-    error,
-    candidates: [],
-    z: NaN,
-    zErr: NaN,
-    class: 'unknown',
-    score: 0,
-    confidence: 'none',
-    chi2Gap: NaN,
-    nFeatures: 0,
-    curves: [],
-    lines: [],
-    noiseEstimated: false,
-    templateSet: 'lantern-templates-1',
-    engineVersion: '0.1.0',
-    input: { nPix: 0, lambdaMinA: NaN, lambdaMaxA: NaN, medianSnr: NaN, meta: {}, format: '' },
-  };
+  return { ...pipelineFailedResult(file, error), templateSet: 'lantern-templates-1', engineVersion: '0.1.0' };
 }
 
 export function decision(over: Partial<ReviewDecision> = {}): ReviewDecision {

@@ -10,6 +10,7 @@
 import { gzipSync } from 'fflate';
 import { fitsCard, fitsHeaderBytes, writeBinTableHdu, writeFitsFile, writeImageHdu } from '../../src/core/io/fits/write';
 import { gzipBomb } from './deflateBomb';
+import { mulberry32 } from '../../src/core/sim/prng';
 import {
   IMAGE_WCS,
   utf8,
@@ -33,17 +34,8 @@ export interface HostileEntry {
 
 const BLOCK = 2880;
 
-/** Mulberry32: a small seeded PRNG (common practice), so the corpus is the same on every run. */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Mulberry32 (the simulator's), so the corpus is the same on every run. */
+export { mulberry32 };
 
 /** An 80-character card from raw text (for values the writer refuses to write). */
 export const rawCard = (text: string): string => text.padEnd(80, ' ').slice(0, 80);

@@ -2,17 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { SpectrumReadError } from '../../../src/core/types';
 import { FitsHeader, MAX_HEADER_BLOCKS, parseCard, readHeader } from '../../../src/core/io/fits/header';
 import { fitsCard, fitsHeaderBytes } from '../../../src/core/io/fits/write';
+import { caught as readError } from '../../helpers/caught';
 
-/** Catch the SpectrumReadError a call throws. */
-function readError(fn: () => unknown): SpectrumReadError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof SpectrumReadError) return e;
-    throw e;
-  }
-  throw new Error('expected a SpectrumReadError');
-}
 
 /** Raw 80-column card text (for cards our writer would never produce). */
 const raw = (s: string): string => s.padEnd(80, ' ');

@@ -3,18 +3,10 @@ import { SpectrumReadError } from '../../../src/core/types';
 import { readFits } from '../../../src/core/io/fits/readFits';
 import { guessNoiseKind } from '../../../src/core/io/fits/image';
 import { fitsCard, fitsHeaderBytes, writeFitsFile, writeImageHdu, type FitsCardInput } from '../../../src/core/io/fits/write';
+import { caught as readError } from '../../helpers/caught';
 
 const WCS: FitsCardInput[] = [['CTYPE1', 'WAVE'], ['CUNIT1', 'Angstrom'], ['CRPIX1', 1], ['CRVAL1', 4000], ['CDELT1', 1]];
 
-function readError(fn: () => unknown): SpectrumReadError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof SpectrumReadError) return e;
-    throw e;
-  }
-  throw new Error('expected a SpectrumReadError');
-}
 
 /** A primary image made by hand: header cards plus raw big-endian data bytes (independent of the writer). */
 function handMade(bitpix: number, dataHex: string, extra: string[] = []): Uint8Array {

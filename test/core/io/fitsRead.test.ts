@@ -4,19 +4,11 @@ import { SpectrumReadError } from '../../../src/core/types';
 import { isFits, readFits } from '../../../src/core/io/fits/readFits';
 import { walkHdus } from '../../../src/core/io/fits/hdus';
 import { fitsCard, fitsHeaderBytes, writeBinTableHdu, writeFitsFile, writeImageHdu, type FitsCardInput } from '../../../src/core/io/fits/write';
+import { caught as readError } from '../../helpers/caught';
 
 const WCS: FitsCardInput[] = [['CTYPE1', 'WAVE'], ['CUNIT1', 'Angstrom'], ['CRPIX1', 1], ['CRVAL1', 4000], ['CDELT1', 1]];
 const good = () => writeFitsFile([writeImageHdu({ data: new Float32Array([1, 2, 3, 4]), cards: WCS })]);
 
-function readError(fn: () => unknown): SpectrumReadError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof SpectrumReadError) return e;
-    throw e;
-  }
-  throw new Error('expected a SpectrumReadError');
-}
 
 /** A primary header from raw cards (no data written). */
 function primaryOnly(cards: string[], extraBytes = 0): Uint8Array {

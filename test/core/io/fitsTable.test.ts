@@ -2,16 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { SpectrumReadError } from '../../../src/core/types';
 import { readFits } from '../../../src/core/io/fits/readFits';
 import { fitsCard, fitsHeaderBytes, writeBinTableHdu, writeFitsFile, writeImageHdu, type BinTableColumn } from '../../../src/core/io/fits/write';
+import { caught as readError } from '../../helpers/caught';
 
-function readError(fn: () => unknown): SpectrumReadError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof SpectrumReadError) return e;
-    throw e;
-  }
-  throw new Error('expected a SpectrumReadError');
-}
 
 const WAVE = [4000, 4001, 4002, 4003];
 const FLUX = [1, 2, 3, 4];

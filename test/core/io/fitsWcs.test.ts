@@ -4,6 +4,7 @@ import { readFits } from '../../../src/core/io/fits/readFits';
 import { readHeader } from '../../../src/core/io/fits/header';
 import { guessUnitToAngstrom, spectralAxis, unitToAngstrom } from '../../../src/core/io/fits/wcs';
 import { writeFitsFile, writeImageHdu, type FitsCardInput } from '../../../src/core/io/fits/write';
+import { caught as readError } from '../../helpers/caught';
 
 /** A 1000-pixel float32 spectrum in the primary HDU with the given WCS cards. */
 function imageFile(cards: FitsCardInput[], n = 1000): Uint8Array {
@@ -11,15 +12,6 @@ function imageFile(cards: FitsCardInput[], n = 1000): Uint8Array {
 }
 function headerOf(cards: FitsCardInput[]) {
   return readHeader(writeImageHdu({ data: new Float32Array(2), cards }), 0, 'f', 0).header;
-}
-function readError(fn: () => unknown): SpectrumReadError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof SpectrumReadError) return e;
-    throw e;
-  }
-  throw new Error('expected a SpectrumReadError');
 }
 const PIXELS = [1, 2, 100, 1000]; // 1-based pixel numbers of reference.md sec. 9
 

@@ -4,21 +4,13 @@
  * the one real spectrum kept in test/data/lines.
  */
 import type { Spectrum } from '../../../../src/core/types';
+import { mulberry32 } from '../../../../src/core/sim/prng';
 
 /** Speed of light, km/s (exact, SI definition). */
 export const C_KMS = 299792.458;
 
-/** mulberry32: a small seeded 32-bit generator (common practice), uniform in [0, 1). */
-export function seededUniform(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** A small seeded generator, uniform in [0, 1): the simulator's mulberry32. */
+export const seededUniform = mulberry32;
 
 /** Standard normal deviates by the Box-Muller transform (Box & Muller 1958, Ann. Math. Stat. 29, 610). */
 export function seededNormal(seed: number): () => number {

@@ -20,6 +20,8 @@
  * 'nan', 'inf', '-inf', empty fields, 'null', 'NA' and '--' are accepted and give
  * non-finite values (flux pixels then masked; a non-finite wavelength is an error).
  * Comment lines start with '#', '%' or ';'; `key: value` comments fill the metadata.
+ * A '#' later on a line (after a blank, a separator or a number, outside
+ * double quotes) starts a trailing comment, which is dropped: `4000 1.2 0.1 # cosmic`.
  */
 import { strFromU8 } from 'fflate';
 import { SpectrumReadError, type Spectrum, type SpectrumMeta } from '../types';
@@ -73,7 +75,7 @@ export function readTextSpectrum(bytes: Uint8Array, file: string): Spectrum {
       return;
     }
     if (!first) {
-      first = { line: lineNo, text: line };
+      first = { line: lineNo, text: stripTrailingComment(line) };
       commentsBeforeFirst = comments.length;
     }
     contentLines++;
@@ -125,7 +127,7 @@ export function readTextSpectrum(bytes: Uint8Array, file: string): Spectrum {
       seenFirst = true;
       return;
     }
-    const fields = splitFields(line, sep);
+    const fields = splitFields(stripTrailingComment(line), sep);
     if (fields.length !== nCol) {
       const expected = plan.headerLine !== null ? `the header on line ${plan.headerLine} names ${nCol}` : `the first row has ${nCol}`;
       throw new SpectrumReadError(file, `row has ${fields.length} columns but ${expected}`, { line: lineNo });
@@ -177,6 +179,28 @@ function forEachLine(text: string, file: string, fn: (line: string, lineNo: numb
     fn(text.slice(start, stop), lineNo);
     start = end + 1;
   }
+}
+
+/**
+ * The line without a trailing `# comment`: cut at the first '#' outside double
+ * quotes that follows a blank, comma, semicolon, digit or '.' (so a name like
+ * 'n#obs' or '"flux #2"' is kept), then trailing blanks are dropped. A separator
+ * just before the '#' stays: `4000,1,#x` has three fields, the last one empty. A line without '#' is returned as it is (the common, fast case).
+ */
+export function stripTrailingComment(line: string): string {
+  const first = line.indexOf('#');
+  if (first < 0) return line;
+  let inQuotes = false;
+  for (let i = 0; i < line.length; i++) {
+    const c = line.charCodeAt(i);
+    if (c === 34) inQuotes = !inQuotes; // '"' ('""' inside quotes toggles twice: no change)
+    else if (c === 35 && !inQuotes && i >= first) {
+      const prev = i === 0 ? 32 : line.charCodeAt(i - 1);
+      const afterNumber = (prev >= 48 && prev <= 57) || prev === 46; // '1.5#note': no number holds a '#'
+      if (afterNumber || prev === 32 || prev === 9 || prev === 44 || prev === 59) return line.slice(0, i).trimEnd();
+    }
+  }
+  return line;
 }
 
 function firstNonBlank(line: string): number {

@@ -124,6 +124,44 @@ describe('readTextSpectrum(bytes, file): layouts', () => {
   });
 });
 
+describe('readTextSpectrum: trailing comments after data', () => {
+  it('drops a trailing # comment on headerless whitespace rows (which would otherwise look like 5+ columns)', () => {
+    const s = read('4000 1.0 0.5 # hand-checked\n4001 2.0 0.25  # cosmic ray nearby, flagged\n4002 3.0 0.5\n');
+    expect(arr(s.wavelengthA)).toEqual([4000, 4001, 4002]);
+    expect(arr(s.flux)).toEqual([1, 2, 3]);
+    expect(arr(s.ivar!)).toEqual([4, 16, 4]); // third column read as a 1-sigma error
+  });
+
+  it('drops a comment whose text holds a comma, so the separator is still detected from the data', () => {
+    const s = read('4000 1 # note, with a comma\n4001 2\n');
+    expect(arr(s.flux)).toEqual([1, 2]);
+  });
+
+  it('drops trailing comments on CSV rows and on the header row, with or without a blank before #', () => {
+    const s = read('wavelength,flux,ivar # units: vacuum Angstrom\n4000,1,4# first\n4001,2,9\t# second\n');
+    expect(arr(s.wavelengthA)).toEqual([4000, 4001]);
+    expect(arr(s.ivar!)).toEqual([4, 9]);
+    expect(arr(read('wave;flux\n5000;1.5# a\n5001;2 #b\n').flux)).toEqual([1.5, 2]);
+  });
+
+  it('keeps the separator before a comment: `4000,1,# x` is three fields, the last one empty', () => {
+    const s = read('wavelength,flux,ivar\n4000,1,# no uncertainty here\n4001,2,9\n');
+    expect(s.ivar![0]).toBe(0); // empty field = missing = no information
+    expect(s.ivar![1]).toBe(9);
+  });
+
+  it('keeps a # that is part of a name or inside quotes', () => {
+    const s = read('wavelength,"flux #2",n#obs\n4000,1,3\n4001,2,3\n');
+    expect(arr(s.flux)).toEqual([1, 2]);
+  });
+
+  it('still refuses a row whose text before the comment is not a number, naming the line', () => {
+    const e = caught(() => read('4000 1\n4001 x # bad\n'));
+    expect(e.where.line).toBe(2);
+    expect(e.reason).toBe("'x' is not a number");
+  });
+});
+
 describe('readTextSpectrum: wavelength units, medium and scale', () => {
   const twoRows = (name: string, a: number, b: number) => `${name},flux\n${a},1\n${b},1\n`;
 

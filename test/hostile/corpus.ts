@@ -515,7 +515,14 @@ function textEntries(): HostileEntry[] {
   e.push(text('csv-nan-everywhere.csv', 'wavelength,flux,ivar\n' + rows(() => 'nan,nan,nan'), 'error', /finite/));
   e.push(text('csv-inf-everywhere.csv', 'wavelength,flux,ivar\n' + rows(() => 'inf,-inf,inf'), 'error', /finite/));
   e.push(text('csv-flux-all-nan.csv', 'wavelength,flux,ivar\n' + rows((i) => `${4000 + i},NaN,inf`), 'error', /NaN/));
-  e.push(text('csv-flux-some-nan.csv', 'wavelength,flux,ivar\n' + rows((i) => `${4000 + i},${i % 2 ? 'nan' : '1'},${i % 3 ? 'inf' : '-1'}`), 'spectrum'));
+  e.push(text('csv-flux-some-nan.csv', 'wavelength,flux,ivar\n' + rows((i) => `${4000 + i},${i % 2 ? 'nan' : '1'},${i % 3 ? 'inf' : '2'}`), 'spectrum'));
+  // Decision: a spectrum with no pixel of non-zero weight is refused, never fitted (issue 11).
+  e.push(text('csv-ivar-inf-or-negative.csv', 'wavelength,flux,ivar\n' + rows((i) => `${4000 + i},1,${i % 3 ? 'inf' : '-1'}`), 'error', /no usable pixel/));
+  e.push(text('csv-ivar-all-zero.csv', 'wavelength,flux,ivar\n' + rows((i) => `${4000 + i},${1 + i / 10},0`), 'error', /no usable pixel.*zero weight/));
+  e.push(text('csv-all-masked.csv', 'wavelength,flux,ivar,mask\n' + rows((i) => `${4000 + i},1,1,${1 + (i % 4)}`), 'error', /no usable pixel.*masked/));
+  e.push(text('csv-weight-and-mask-disjoint.csv', 'wavelength,flux,ivar,mask\n' + rows((i) => `${4000 + i},1,${i % 2},${i % 2}`), 'error', /no usable pixel/));
+  e.push(text('csv-flux-nan-where-weighted.csv', 'wavelength,flux,ivar\n' + rows((i) => `${4000 + i},${i % 2 ? 'nan' : '1'},${i % 2}`), 'error', /no usable pixel/));
+  e.push(text('txt-error-all-zero.txt', rows((i) => `${4000 + i} 1 0`), 'error', /no usable pixel/));
   e.push(text('csv-header-only.csv', 'wavelength,flux,ivar\n', 'error', /no numeric rows/));
   e.push(text('csv-header-only-no-newline.csv', 'wavelength,flux', 'error'));
   e.push(text('csv-comments-only.csv', '# just a comment\n% another\n; and another\n', 'error', /no numeric rows/));

@@ -23,5 +23,8 @@ export function checkSpectrumInvariants(s: Spectrum): string[] {
   }
   if (!s.flux.some((v) => Number.isFinite(v))) problems.push('no finite flux');
   if (s.ivar && s.ivar.some((v) => !(v >= 0) || !Number.isFinite(v))) problems.push('ivar negative or not finite');
+  let usable = 0;
+  for (let i = 0; i < n; i++) if (s.mask[i] === 0 && Number.isFinite(s.flux[i]) && (!s.ivar || s.ivar[i] > 0)) usable++;
+  if (usable === 0) problems.push('no usable pixel (finite flux, unmasked, positive ivar)');
   return problems;
 }

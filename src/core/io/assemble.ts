@@ -28,7 +28,9 @@ export interface SpectrumParts {
 
 /**
  * Validate reader output once and build the Spectrum. Every reader ends here,
- * so the invariants in types.ts hold for every spectrum in the program.
+ * so the invariants in types.ts hold for every spectrum in the program; on top
+ * of them, at least one pixel must be usable (finite flux, not masked, and a
+ * positive inverse variance when there is an uncertainty).
  */
 export function assembleSpectrum(p: SpectrumParts): Spectrum {
   const { file, wavelengthA: wl, flux } = p;
@@ -56,14 +58,38 @@ export function assembleSpectrum(p: SpectrumParts): Spectrum {
   for (let i = 0; i < n; i++) if (Number.isFinite(flux[i])) finite++;
   if (finite === 0) throw new SpectrumReadError(file, 'all flux values are NaN or infinite', where);
   const mask = p.mask ?? new Uint8Array(n);
-  let ivar = p.ivar;
+  const ivar = p.ivar;
   if (ivar) {
     // Negative, NaN or infinite inverse variance carries no usable information.
     for (let i = 0; i < n; i++) if (!(ivar[i] >= 0) || !Number.isFinite(ivar[i])) ivar[i] = 0;
-    let any = false;
-    for (let i = 0; i < n && !any; i++) if (ivar[i] > 0) any = true;
-    if (!any) ivar = null; // an all-zero uncertainty is no uncertainty at all
   }
   for (let i = 0; i < n; i++) if (!Number.isFinite(flux[i])) mask[i] = 1;
+  checkUsablePixels(file, flux, ivar, mask, where);
   return { file, format: p.format, wavelengthA: wl, flux, ivar, mask, meta: p.meta ?? {} };
+}
+
+/**
+ * Refuse a spectrum in which no pixel can carry weight in a fit: a usable pixel
+ * has a finite flux, is not masked and (when the file gave an uncertainty) has
+ * a positive inverse variance. An uncertainty that is zero everywhere is the
+ * file saying every pixel is bad, not that the uncertainty is unknown.
+ */
+function checkUsablePixels(file: string, flux: Float64Array, ivar: Float64Array | null, mask: Uint8Array, where: ReadErrorWhere): void {
+  const n = flux.length;
+  let weighted = 0;
+  let unmasked = 0;
+  let usable = 0;
+  for (let i = 0; i < n; i++) {
+    const w = ivar === null || ivar[i] > 0;
+    const m = mask[i] === 0; // non-finite flux is already masked
+    if (w) weighted++;
+    if (m) unmasked++;
+    if (w && m) usable++;
+  }
+  if (usable > 0) return;
+  let why: string;
+  if (ivar && weighted === 0) why = `the uncertainty gives zero weight (inverse variance 0, or an error that is 0, negative or not a number) to all ${n} pixels`;
+  else if (unmasked === 0) why = `all ${n} pixels are masked as bad (or have no finite flux)`;
+  else why = `every pixel with non-zero weight is masked, and every unmasked pixel has zero weight (${n} pixels)`;
+  throw new SpectrumReadError(file, `no usable pixel: ${why}`, where);
 }

@@ -2,11 +2,14 @@
  * A pool of fit workers for a batch: a shared queue, a time limit per file
  * (a worker that runs past it is terminated and replaced, and the file is
  * marked 'timeout'), cancellation through AbortSignal, and a fresh worker
- * after any crash. Workers come from an injected factory, so the scheduling
- * is tested with fakes and no real Worker.
+ * after any crash. The scheduling is the shared core in
+ * src/core/pool/taskPool.ts; this file maps files, AbortSignal and outcomes
+ * onto it. Workers come from an injected factory, so the pool is tested with
+ * fakes and no real Worker.
  */
 import type { FitResult } from '../core/types';
 import { failedResult } from '../core/failedResult';
+import { TaskPool, type PoolEndpoint, type TaskOutcome } from '../core/pool/taskPool';
 
 /** The part of a fit worker the pool uses. */
 export interface PoolWorker {
@@ -49,157 +52,77 @@ export function defaultPoolSize(hardwareConcurrency: number | undefined): number
   return Math.min(8, cores <= 2 ? cores : cores - 1);
 }
 
-interface Queued {
-  job: FitJob;
-  signal?: AbortSignal;
-  resolve: (o: PoolOutcome) => void;
-  onAbort?: () => void;
+/** A TaskPool endpoint over one fit worker. */
+function fitEndpoint(worker: PoolWorker): PoolEndpoint<FitInput, FitResult> {
+  return { run: ({ bytes, file }) => worker.fitFile(bytes, file), terminate: () => worker.terminate() };
 }
 
-interface Slot {
-  worker: PoolWorker | null;
-  busy: boolean;
+interface FitInput {
+  bytes: Uint8Array;
+  file: string;
 }
 
+/** What a task's outcome means for one file. */
+function outcomeOf(o: TaskOutcome<FitResult>, file: string): PoolOutcome {
+  switch (o.kind) {
+    case 'done':
+      return { kind: 'result', result: o.output };
+    case 'timeout':
+      return { kind: 'result', result: failedResult(file, `${file}: fit stopped after the time limit of ${(o.limitMs / 1000).toFixed(1)} s`, 'timeout') };
+    case 'crash':
+      return { kind: 'result', result: failedResult(file, `${file}: worker failed: ${o.message}`) };
+    case 'input-failed':
+      return { kind: 'result', result: failedResult(file, `${file}: stored bytes could not be read: ${o.message}`) };
+    case 'cancelled':
+      return { kind: 'cancelled' };
+  }
+}
+
+/** The browser's adapter over the shared TaskPool core (src/core/pool): Web Workers, AbortSignal, FitResult. */
 export class FitPool {
-  private readonly slots: Slot[];
-  private readonly queue: Queued[] = [];
-  private disposed = false;
-  /** Workers created so far (the first ones plus replacements); for tests and diagnostics. */
-  workersCreated = 0;
+  private readonly core: TaskPool<FitInput, FitResult>;
 
-  constructor(private readonly options: PoolOptions) {
-    if (!(options.size >= 1)) throw new Error(`invalid pool size: ${options.size}`);
-    if (!(options.timeLimitMs > 0)) throw new Error(`invalid time limit: ${options.timeLimitMs}`);
-    this.slots = Array.from({ length: options.size }, () => ({ worker: null, busy: false }));
+  constructor(options: PoolOptions) {
+    this.core = new TaskPool<FitInput, FitResult>({
+      size: options.size,
+      timeLimitMs: options.timeLimitMs,
+      createEndpoint: () => fitEndpoint(options.createWorker()),
+      startTimer: (ms, onExpire) => {
+        const timer = setTimeout(onExpire, ms);
+        return () => clearTimeout(timer);
+      },
+    });
+  }
+
+  /** Workers created so far (the first ones plus replacements); for tests and diagnostics. */
+  get workersCreated(): number {
+    return this.core.endpointsCreated;
   }
 
   /** Files waiting for a worker. */
   get waiting(): number {
-    return this.queue.length;
+    return this.core.waiting;
   }
 
   /** Files being fitted now. */
   get running(): number {
-    return this.slots.filter((s) => s.busy).length;
+    return this.core.running;
   }
 
   /** Queue one file; resolves with its FitResult (never rejects) or 'cancelled'. */
   fit(job: FitJob, signal?: AbortSignal): Promise<PoolOutcome> {
-    if (this.disposed) return Promise.resolve({ kind: 'cancelled' });
     if (signal?.aborted) return Promise.resolve({ kind: 'cancelled' });
-    return new Promise<PoolOutcome>((resolve) => {
-      const entry: Queued = { job, signal, resolve };
-      if (signal) {
-        entry.onAbort = () => {
-          const i = this.queue.indexOf(entry);
-          if (i >= 0) {
-            this.queue.splice(i, 1);
-            resolve({ kind: 'cancelled' });
-          }
-        };
-        signal.addEventListener('abort', entry.onAbort, { once: true });
-      }
-      this.queue.push(entry);
-      this.pump();
-    });
+    const task = this.core.submit(() => job.loadBytes().then((bytes) => ({ bytes, file: job.file })));
+    if (signal) {
+      const onAbort = () => task.cancel();
+      signal.addEventListener('abort', onAbort, { once: true });
+      void task.outcome.then(() => signal.removeEventListener('abort', onAbort));
+    }
+    return task.outcome.then((o) => outcomeOf(o, job.file));
   }
 
-  /** Terminate every worker; queued files resolve as cancelled. */
+  /** Terminate every worker; queued and running files resolve as cancelled. */
   dispose(): void {
-    this.disposed = true;
-    for (const q of this.queue.splice(0)) {
-      if (q.onAbort) q.signal?.removeEventListener('abort', q.onAbort);
-      q.resolve({ kind: 'cancelled' });
-    }
-    for (const slot of this.slots) {
-      slot.worker?.terminate();
-      slot.worker = null;
-    }
-  }
-
-  private pump(): void {
-    for (const slot of this.slots) {
-      if (slot.busy || this.disposed) continue;
-      const next = this.queue.shift();
-      if (!next) return;
-      if (next.onAbort) next.signal?.removeEventListener('abort', next.onAbort);
-      slot.busy = true;
-      void this.runOn(slot, next).finally(() => {
-        slot.busy = false;
-        this.pump();
-      });
-    }
-  }
-
-  private workerFor(slot: Slot): PoolWorker {
-    if (!slot.worker) {
-      slot.worker = this.options.createWorker();
-      this.workersCreated++;
-    }
-    return slot.worker;
-  }
-
-  /** Drop a worker that timed out, crashed or was cancelled mid-file; a fresh one is made when next needed. */
-  private retire(slot: Slot, worker: PoolWorker): void {
-    try {
-      worker.terminate();
-    } catch {
-      /* already gone */
-    }
-    if (slot.worker === worker) slot.worker = null;
-  }
-
-  private async runOn(slot: Slot, { job, signal, resolve }: Queued): Promise<void> {
-    let bytes: Uint8Array;
-    try {
-      bytes = await job.loadBytes();
-    } catch (e) {
-      resolve({ kind: 'result', result: failedResult(job.file, `${job.file}: stored bytes could not be read: ${(e as Error)?.message ?? e}`) });
-      return;
-    }
-    if (signal?.aborted || this.disposed) {
-      resolve({ kind: 'cancelled' });
-      return;
-    }
-    const worker = this.workerFor(slot);
-    const limitMs = this.options.timeLimitMs;
-    type Race = { kind: 'ok'; result: FitResult } | { kind: 'error'; message: string } | { kind: 'timeout' } | { kind: 'abort' };
-    let timer: ReturnType<typeof setTimeout> | undefined;
-    let onAbort: (() => void) | undefined;
-    const race = await new Promise<Race>((settle) => {
-      timer = setTimeout(() => settle({ kind: 'timeout' }), limitMs);
-      if (signal) {
-        onAbort = () => settle({ kind: 'abort' });
-        signal.addEventListener('abort', onAbort, { once: true });
-      }
-      worker.fitFile(bytes, job.file).then(
-        (result) => settle({ kind: 'ok', result }),
-        (e) => settle({ kind: 'error', message: (e as Error)?.message ?? String(e) }),
-      );
-    });
-    clearTimeout(timer);
-    if (onAbort) signal?.removeEventListener('abort', onAbort);
-
-    switch (race.kind) {
-      case 'ok':
-        resolve({ kind: 'result', result: race.result });
-        return;
-      case 'timeout':
-        this.retire(slot, worker);
-        resolve({
-          kind: 'result',
-          result: failedResult(job.file, `${job.file}: fit stopped after the time limit of ${(limitMs / 1000).toFixed(1)} s`, 'timeout'),
-        });
-        return;
-      case 'error':
-        this.retire(slot, worker);
-        resolve({ kind: 'result', result: failedResult(job.file, `${job.file}: worker failed: ${race.message}`) });
-        return;
-      case 'abort':
-        this.retire(slot, worker);
-        resolve({ kind: 'cancelled' });
-        return;
-    }
+    void this.core.dispose();
   }
 }

@@ -1,18 +1,7 @@
 import { describe, it, expect, vi, afterEach } from 'vitest';
 import { FitPool, defaultPoolSize, type PoolWorker, type FitJob } from '../../src/worker/pool';
 import type { FitResult } from '../../src/core/types';
-
-// The pool only needs failedResult from the pipeline; a stand-in keeps this
-// test free of the fitting engine.
-vi.mock('../../src/core/pipeline', () => ({
-  failedResult: (file: string, message: string, status = 'failed') => ({
-    file, status, error: message, candidates: [], z: NaN, zErr: NaN, class: 'unknown', score: 0,
-    confidence: 'none', chi2Gap: NaN, nFeatures: 0, curves: [], lines: [], noiseEstimated: false,
-    templateSet: 't', engineVersion: 'e',
-    input: { nPix: 0, lambdaMinA: NaN, lambdaMaxA: NaN, medianSnr: NaN, meta: {}, format: '' },
-  }),
-}));
-const { failedResult } = await import('../../src/core/pipeline');
+import { failedResult } from '../../src/core/failedResult';
 
 /** A fake worker whose fits finish only when the test says so. */
 class FakeWorker implements PoolWorker {
@@ -163,6 +152,32 @@ describe('FitPool', () => {
     pool.dispose();
     expect(await b).toEqual({ kind: 'cancelled' });
     expect(FakeWorker.made[0].terminated).toBe(true);
+  });
+
+  it('dispose also ends the running file as cancelled rather than leaving it to its time limit', async () => {
+    const pool = new FitPool({ size: 1, createWorker: () => new FakeWorker(), timeLimitMs: 1000 });
+    const a = pool.fit(job('a'));
+    await flush();
+    expect(pool.running).toBe(1);
+    pool.dispose();
+    expect(await a).toEqual({ kind: 'cancelled' });
+    expect(pool.running).toBe(0);
+    expect(await pool.fit(job('b'))).toEqual({ kind: 'cancelled' });
+    expect(pool.workersCreated).toBe(1);
+  });
+
+  it('one abort signal for a batch stops every file, running or waiting, and leaves the pool usable', async () => {
+    const pool = new FitPool({ size: 2, createWorker: () => new FakeWorker(), timeLimitMs: 1000 });
+    const ctl = new AbortController();
+    const outs = ['a', 'b', 'c', 'd'].map((f) => pool.fit(job(f), ctl.signal));
+    await flush();
+    ctl.abort();
+    expect((await Promise.all(outs)).every((o) => o.kind === 'cancelled')).toBe(true);
+    await flush();
+    // No waiting file slipped onto a worker between the cancels.
+    expect(FakeWorker.made.flatMap((w) => w.calls.map((c) => c.file))).toEqual(['a', 'b']);
+    expect(FakeWorker.made.every((w) => w.terminated)).toBe(true);
+    pool.dispose();
   });
 
   it('defaultPoolSize uses every core of a small machine and leaves one for the page on a larger one', () => {

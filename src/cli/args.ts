@@ -1,9 +1,9 @@
-/** A small argument parser: positional inputs plus --name value / --name=value / --flag. */
-export interface ParsedArgs {
-  positional: string[];
-  options: Map<string, string>;
-  flags: Set<string>;
-}
+/**
+ * Command-line parsing for the CLI tools: Node's own `util.parseArgs`, run in
+ * its lenient mode so that every problem is reported in our words (the option
+ * as typed, what is wrong with it) rather than in Node's.
+ */
+import { parseArgs } from 'node:util';
 
 export class UsageError extends Error {
   constructor(message: string) {
@@ -12,32 +12,42 @@ export class UsageError extends Error {
   }
 }
 
-/** `valued` lists the options that take a value; any other --word is a flag. */
-export function parseArgs(argv: string[], valued: readonly string[], known: readonly string[]): ParsedArgs {
-  const positional: string[] = [];
-  const options = new Map<string, string>();
-  const flags = new Set<string>();
-  for (let i = 0; i < argv.length; i++) {
-    const a = argv[i];
-    if (a === '--') {
-      positional.push(...argv.slice(i + 1));
-      break;
-    }
-    if (!a.startsWith('--')) {
-      positional.push(a);
+/** Option names (without the leading --) and whether each takes a value ('string') or is a flag ('boolean'). */
+export type OptionTypes = Readonly<Record<string, 'string' | 'boolean'>>;
+
+export type OptionValues<S extends OptionTypes> = { [K in keyof S]?: S[K] extends 'string' ? string : boolean };
+
+export interface CommandLine<S extends OptionTypes> {
+  values: OptionValues<S>;
+  /** Everything that is not an option, in order; after a lone `--` everything is positional. */
+  positionals: string[];
+}
+
+/**
+ * Parse `argv` (without the node and script words). Accepts `--name value`,
+ * `--name=value` and `--flag`; a repeated option keeps its last value. Throws
+ * UsageError for an unknown option (short ones included), a value missing or
+ * given to a flag, and a value that looks like another option (`--out --jobs 2`
+ * forgot the file name; `--out=--odd` passes such a value on purpose).
+ */
+export function parseCommandLine<S extends OptionTypes>(argv: readonly string[], spec: S): CommandLine<S> {
+  const options = Object.fromEntries(Object.entries(spec).map(([name, type]) => [name, { type }]));
+  const { tokens, positionals } = parseArgs({ args: [...argv], options, strict: false, allowPositionals: true, tokens: true });
+  const values: Record<string, string | boolean> = {};
+  for (const t of tokens) {
+    if (t.kind !== 'option') continue;
+    const type = Object.hasOwn(spec, t.name) ? spec[t.name] : undefined;
+    if (type === undefined) throw new UsageError(`unknown option ${t.rawName}`);
+    if (type === 'boolean') {
+      if (t.value !== undefined) throw new UsageError(`${t.rawName} takes no value (got '${t.value}')`);
+      values[t.name] = true;
       continue;
     }
-    const eq = a.indexOf('=');
-    const name = a.slice(2, eq < 0 ? undefined : eq);
-    if (!valued.includes(name) && !known.includes(name)) throw new UsageError(`unknown option --${name}`);
-    if (valued.includes(name)) {
-      const value = eq >= 0 ? a.slice(eq + 1) : argv[++i];
-      if (value === undefined) throw new UsageError(`--${name} needs a value`);
-      options.set(name, value);
-    } else {
-      if (eq >= 0) throw new UsageError(`--${name} takes no value`);
-      flags.add(name);
+    if (t.value === undefined) throw new UsageError(`${t.rawName} needs a value`);
+    if (!t.inlineValue && t.value.length > 1 && t.value.startsWith('-')) {
+      throw new UsageError(`${t.rawName} needs a value, but '${t.value}' looks like an option (write ${t.rawName}=${t.value} if it is the value)`);
     }
+    values[t.name] = t.value;
   }
-  return { positional, options, flags };
+  return { values: values as OptionValues<S>, positionals };
 }

@@ -7,46 +7,25 @@
 import { availableParallelism } from 'node:os';
 import { createWriteStream, type WriteStream } from 'node:fs';
 import { Worker } from 'node:worker_threads';
-import { parseArgs, UsageError } from './args';
+import { UsageError } from './args';
+import { FIT_USAGE, parseFitOptions } from './options';
 import { expandInputs } from './walk';
-import { listFingerprint, parseShard, selectShard } from './shard';
+import { listFingerprint, selectShard } from './shard';
 import { JobFailure, ThreadPool } from './threadPool';
-import { parseCosmologyOption } from './cosmologyOption';
 import { failedResult } from '../core/pipeline';
-import { automaticRow, catalogueTableWriter, type TableFormat } from '../core/table';
+import { automaticRow, catalogueTableWriter } from '../core/table';
 import { ENGINE_VERSION, TEMPLATE_SET_ID } from '../core/engine';
 import { SOFTWARE_NAME, SOFTWARE_VERSION } from '../core/version';
 import type { FitJob, FitJobResult } from './fitThread';
 
-const USAGE = `usage: npm run fit -- <files or folders...> --out <table.csv> [options]
-  --out FILE          where to write the table (default: standard output)
-  --format csv|json   table format (default csv; also from the --out extension)
-  --jobs N            worker threads (default: the number of cores)
-  --cosmology SPEC    e.g. h0=70,om=0.3,ok=0,or=0 (default flat h0=70, om=0.3)
-  --shard I/N         fit only shard I of N of the sorted input list
-  --time-limit S      seconds allowed per file (default 60)
-  --no-header         CSV without the # header block
-  --quiet             no progress line on standard error`;
-
 async function main(argv: string[]): Promise<number> {
-  const args = parseArgs(argv, ['out', 'format', 'jobs', 'cosmology', 'shard', 'time-limit'], ['no-header', 'quiet', 'help']);
-  if (args.flags.has('help')) {
-    process.stdout.write(USAGE + '\n');
+  const options = parseFitOptions(argv, availableParallelism());
+  if (options === 'help') {
+    process.stdout.write(FIT_USAGE + '\n');
     return 0;
   }
-  if (args.positional.length === 0) throw new UsageError('no input files or folders given');
-  const outPath = args.options.get('out');
-  const format = (args.options.get('format') ?? (outPath?.endsWith('.json') ? 'json' : 'csv')) as TableFormat;
-  if (format !== 'csv' && format !== 'json') throw new UsageError(`unknown --format ${format}: use csv or json`);
-  const jobs = Number(args.options.get('jobs') ?? availableParallelism());
-  if (!Number.isInteger(jobs) || jobs < 1) throw new UsageError(`--jobs must be a whole number >= 1`);
-  const timeLimitS = Number(args.options.get('time-limit') ?? 60);
-  if (!(timeLimitS > 0)) throw new UsageError('--time-limit must be a positive number of seconds');
-  const cosmology = parseCosmologyOption(args.options.get('cosmology'));
-
-  const all = expandInputs(args.positional);
-  const shardText = args.options.get('shard');
-  const shard = shardText ? parseShard(shardText) : { index: 1, count: 1 };
+  const { out: outPath, format, jobs, timeLimitS, cosmology, shard, headerBlock, quiet } = options;
+  const all = expandInputs(options.inputs);
   const files = selectShard(all, shard);
 
   const out: WriteStream | NodeJS.WriteStream = outPath ? createWriteStream(outPath) : process.stdout;
@@ -62,7 +41,7 @@ async function main(argv: string[]): Promise<number> {
     templateSet: TEMPLATE_SET_ID,
     cosmology,
     createdAt: new Date().toISOString(),
-    headerBlock: !args.flags.has('no-header'),
+    headerBlock,
     extra: { engine: ENGINE_VERSION, shard: `${shard.index}/${shard.count}`, inputs_total: String(all.length), input_list: listFingerprint(all) },
   });
   const write = (s: string) => new Promise<void>((res) => (out.write(s) ? res() : out.once('drain', () => res())));
@@ -82,7 +61,7 @@ async function main(argv: string[]): Promise<number> {
   const tty = process.stderr.isTTY;
   let lastReport = 0;
   const progress = (final = false) => {
-    if (args.flags.has('quiet')) return;
+    if (quiet) return;
     // On a terminal one line rewritten in place; in a log file a line every few seconds.
     if (!tty && !final && Date.now() - lastReport < 5000) return;
     lastReport = Date.now();
@@ -129,7 +108,7 @@ async function main(argv: string[]): Promise<number> {
 main(process.argv.slice(2)).then(
   (code) => process.exit(code),
   (e: Error) => {
-    process.stderr.write(`${e instanceof UsageError ? `error: ${e.message}\n${USAGE}` : `error: ${e.stack ?? e.message}`}\n`);
+    process.stderr.write(`${e instanceof UsageError ? `error: ${e.message}\n${FIT_USAGE}` : `error: ${e.stack ?? e.message}`}\n`);
     process.exit(2);
   },
 );

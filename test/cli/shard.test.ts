@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest';
 import { listFingerprint, parseShard, selectShard } from '../../src/cli/shard';
-import { parseArgs, UsageError } from '../../src/cli/args';
 
 describe('selectShard(items, {index, count})', () => {
   const items = Array.from({ length: 103 }, (_, i) => `f${String(i).padStart(4, '0')}.fits`);
@@ -26,19 +25,5 @@ describe('selectShard(items, {index, count})', () => {
     expect(listFingerprint(['a', 'b'])).toBe(listFingerprint(['a', 'b']));
     expect(listFingerprint(['a', 'b'])).not.toBe(listFingerprint(['a', 'c']));
     expect(listFingerprint(['ab'])).not.toBe(listFingerprint(['a', 'b']));
-  });
-});
-
-describe('parseArgs(argv, valued, known)', () => {
-  it('separates inputs, valued options and flags', () => {
-    const a = parseArgs(['x.fits', '--out', 't.csv', '--jobs=3', 'dir', '--quiet'], ['out', 'jobs'], ['quiet']);
-    expect(a.positional).toEqual(['x.fits', 'dir']);
-    expect(a.options.get('out')).toBe('t.csv');
-    expect(a.options.get('jobs')).toBe('3');
-    expect(a.flags.has('quiet')).toBe(true);
-  });
-  it('names an unknown option or a missing value', () => {
-    expect(() => parseArgs(['--bogus'], [], [])).toThrow(UsageError);
-    expect(() => parseArgs(['--out'], ['out'], [])).toThrow(/--out needs a value/);
   });
 });

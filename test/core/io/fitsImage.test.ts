@@ -159,8 +159,41 @@ describe('uncertainty and mask', () => {
     const file = writeFitsFile([writeImageHdu({ data, axes: [n, 5], cards: [...WCS, ['EXTEN0', 'Flux Inverse Subcontinuum Andmask Ormask']] })]);
     const s = readFits(file, 'rows.fits');
     expect(s.ivar![0]).toBe(4);
-    // A bit mask is not used when the file has an inverse variance (see names.ts).
-    expect(s.mask[7]).toBe(0);
+    expect(s.wavelengthA[0]).toBe(4000); // the sub-continuum row is not a wavelength: the WCS is used
+    // The and-mask of this layout marks pixels bad in every exposure: applied even with an inverse variance (issue 11).
+    expect(Array.from(s.mask).flatMap((m, i) => (m ? [i] : []))).toEqual([7]);
+  });
+
+  it("EXTEN0 'Flux Inverse Wavelength Andmask Ormask': wavelengths from row 3, and-mask applied, or-mask not", () => {
+    const data = new Float32Array(5 * n);
+    data.set(flux);
+    data.fill(4, n, 2 * n);
+    for (let i = 0; i < n; i++) data[2 * n + i] = 10 ** (3.6 + 1e-4 * i);
+    data[3 * n + 2] = 1; // and-mask on pixel 3
+    data[3 * n + 9] = 65536; // a high bit on pixel 10
+    data[4 * n + 5] = 4; // or-mask only on pixel 6
+    const cards: FitsCardInput[] = [['EXTEN0', 'Flux Inverse Wavelength Andmask Ormask'], ['VACUUM', true]];
+    const s = readFits(writeFitsFile([writeImageHdu({ data, axes: [n, 5], cards })]), 'rows5.fits');
+    expect(s.wavelengthA[0]).toBeCloseTo(10 ** 3.6, 2);
+    expect(s.wavelengthA[n - 1]).toBeCloseTo(10 ** (3.6 + 1e-4 * (n - 1)), 2);
+    expect(Array.from(s.mask).flatMap((m, i) => (m ? [i] : []))).toEqual([2, 9]);
+  });
+
+  it('an undescribed 5-row image whose rows fit the layout flux, ivar, wavelength, and-mask, or-mask is read that way', () => {
+    const data = new Float32Array(5 * n);
+    data.set(flux);
+    data.fill(100, n, 2 * n);
+    for (let i = 0; i < n; i++) data[2 * n + i] = 5000 + 2 * i;
+    data[3 * n + 4] = 2;
+    data[4 * n + 6] = 1;
+    const s = readFits(writeFitsFile([writeImageHdu({ data, axes: [n, 5] })]), 'bare5.fits');
+    expect(s.wavelengthA[1]).toBe(5002);
+    expect(Array.from(s.mask).flatMap((m, i) => (m ? [i] : []))).toEqual([4]);
+    // Rows 4-5 that are not whole numbers are not masks: nothing is masked, the WCS gives the wavelengths.
+    data[3 * n + 1] = 0.5;
+    const t = readFits(writeFitsFile([writeImageHdu({ data, axes: [n, 5], cards: WCS })]), 'bare5b.fits');
+    expect(Array.from(t.mask).every((m) => m === 0)).toBe(true);
+    expect(t.wavelengthA[1]).toBe(4001);
   });
 
   it("BANDIDn names the rows (IRAF multispec): 'sigma' row is the error", () => {

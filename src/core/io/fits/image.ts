@@ -7,7 +7,10 @@
  * whose rows are flux plus uncertainty (and more), as some surveys write them.
  * Row meanings come from BANDIDn (IRAF multispec) or EXTEN0 (a word per row)
  * when present; otherwise row 1 is flux and row 2 the uncertainty, whose kind
- * (inverse variance, error, variance) is judged from the data (see `guessNoiseKind`).
+ * (inverse variance, error, variance) is judged from the data (see `guessNoiseKind`),
+ * and a 5-row image whose data fit the survey layout flux, inverse variance,
+ * wavelength, and-mask, or-mask is read that way (see `undescribedFiveRows`).
+ * An and-mask row masks every pixel where it is non-zero.
  */
 import { checkPixelCount } from '../assemble';
 import { SpectrumReadError } from '../../types';
@@ -15,7 +18,7 @@ import { decodeValues, type Scaling } from './decode';
 import type { FitsHeader } from './header';
 import type { FitsHdu } from './hdus';
 import { isUncertainty, roleOf, toInverseVariance, type Role } from './names';
-import { spectralAxis } from './wcs';
+import { headerSaysAir, spectralAxis, type SpectralAxis } from './wcs';
 import type { RawSpectrum } from './raw';
 
 /** Images with more rows than this are frames, not 1-D spectra with companion rows. */
@@ -58,21 +61,48 @@ function shapeOf(hdu: FitsHdu, file: string): { n: number; rows: number } {
   return { n, rows };
 }
 
+/** Row roles and the keyword that gave them. */
+export interface RowLayout {
+  roles: (Role | null)[];
+  source: 'BANDID' | 'EXTEN0';
+}
+
 /** Role of each row from BANDIDn or EXTEN0 keywords, or null when the header does not say. */
-export function rowRoles(h: FitsHeader, rows: number): (Role | null)[] | null {
+export function rowLayout(h: FitsHeader, rows: number): RowLayout | null {
   const bandIds: (string | undefined)[] = [];
   for (let i = 1; i <= rows; i++) bandIds.push(h.str(`BANDID${i}`));
   if (bandIds.some((b) => b !== undefined)) {
     // e.g. 'spectrum - background fit, weights variance, clean no', 'sigma - background fit, ...'
-    return bandIds.map((b) => (b === undefined ? null : roleOf(b.split(/[\s,-]+/)[0] ?? '')));
+    return { roles: bandIds.map((b) => (b === undefined ? null : roleOf(b.split(/[\s,-]+/)[0] ?? ''))), source: 'BANDID' };
   }
   const exten0 = h.str('EXTEN0');
   if (exten0 !== undefined) {
-    // e.g. 'Flux Inverse Subcontinuum Andmask Ormask': one word per row.
+    // e.g. 'Flux Inverse Subcontinuum Andmask Ormask' or 'Flux Inverse Wavelength Andmask Ormask': one word per row.
     const words = exten0.split(/\s+/).filter(Boolean);
-    if (words.length >= rows) return words.slice(0, rows).map(roleOf);
+    if (words.length >= rows) return { roles: words.slice(0, rows).map(roleOf), source: 'EXTEN0' };
   }
   return null;
+}
+
+/** Role of each row from BANDIDn or EXTEN0 keywords, or null when the header does not say. */
+export function rowRoles(h: FitsHeader, rows: number): (Role | null)[] | null {
+  return rowLayout(h, rows)?.roles ?? null;
+}
+
+/** True when every value is a finite whole number >= 0 (a mask row rather than data). */
+function isMaskLike(values: Float64Array): boolean {
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i];
+    if (!(v >= 0) || !Number.isInteger(v)) return false;
+  }
+  return true;
+}
+
+/** True when the values are finite, positive and strictly increasing (a wavelength row). */
+function isIncreasingPositive(values: Float64Array): boolean {
+  if (!(values[0] > 0)) return false;
+  for (let i = 1; i < values.length; i++) if (!(values[i] > values[i - 1]) || !Number.isFinite(values[i])) return false;
+  return true;
 }
 
 /** Median of the finite values (of at most ~20000 evenly spaced samples). */
@@ -119,9 +149,10 @@ function companionRow(bytes: Uint8Array, hdu: FitsHdu, n: number, file: string, 
   return imageRow(bytes, hdu, 0, file);
 }
 
-function wavelengthFromValues(values: Float64Array, role: Role): { wl: Float64Array; air: boolean } {
+/** Wavelengths from a row or HDU of values; `headerAir` when the header says the wavelengths are in air (VACUUM = F ...). */
+function wavelengthFromValues(values: Float64Array, role: Role, headerAir = false): { wl: Float64Array; air: boolean } {
   if (role === 'loglam') for (let i = 0; i < values.length; i++) values[i] = 10 ** values[i];
-  return { wl: values, air: role === 'wave-air' };
+  return { wl: values, air: role === 'wave-air' || headerAir };
 }
 
 /**
@@ -132,7 +163,8 @@ export function readImage(bytes: Uint8Array, file: string, hdus: readonly FitsHd
   const hdu = hdus[index];
   const h = hdu.header;
   const { n, rows } = shapeOf(hdu, file);
-  const roles = rows > 1 ? rowRoles(h, rows) : null;
+  const layout = rows > 1 ? rowLayout(h, rows) : null;
+  const roles = layout?.roles ?? null;
 
   const fluxRow = roles ? Math.max(roles.indexOf('flux'), 0) : 0;
   const flux = imageRow(bytes, hdu, fluxRow, file);
@@ -152,11 +184,15 @@ export function readImage(bytes: Uint8Array, file: string, hdus: readonly FitsHd
         noiseFrom = `row ${u + 1} (${roles[u]})`;
       }
       let m = roles.indexOf('mask');
-      if (m < 0 && !ivar) m = roles.indexOf('bitmask'); // see names.ts: bit masks only without an uncertainty
+      // Bit masks are used only without an uncertainty (see names.ts), except the
+      // and-mask row of an EXTEN0 layout ('Flux Inverse ... Andmask Ormask'), whose
+      // bits all mark pixels bad in every exposure: there a non-zero and-mask masks
+      // the pixel. The or-mask (bad in some exposure) is not applied.
+      if (m < 0 && (!ivar || layout?.source === 'EXTEN0')) m = roles.indexOf('bitmask');
       if (m >= 0) mask = toMask(imageRow(bytes, hdu, m, file));
       const w = roles.findIndex((r) => r === 'wave' || r === 'loglam' || r === 'wave-air');
       if (w >= 0) {
-        ({ wl, air } = wavelengthFromValues(imageRow(bytes, hdu, w, file), roles[w]!));
+        ({ wl, air } = wavelengthFromValues(imageRow(bytes, hdu, w, file), roles[w]!, headerSaysAir(h)));
         rule = `row ${w + 1} (${roles[w]})`;
       }
     } else {
@@ -164,6 +200,16 @@ export function readImage(bytes: Uint8Array, file: string, hdus: readonly FitsHd
       const kind = guessNoiseKind(flux, row);
       ivar = toInverseVariance(row, kind);
       noiseFrom = `row 2 (${kind}, judged from the data)`;
+      if (rows === FIVE_ROW_LAYOUT) {
+        const five = undescribedFiveRows(bytes, hdu, n, file, hdus, index);
+        if (five) {
+          mask = five.mask;
+          if (five.wl) {
+            ({ wl, air } = wavelengthFromValues(five.wl, 'wave', headerSaysAir(h)));
+            rule = 'row 3 (wavelength, 5-row layout)';
+          }
+        }
+      }
     }
   }
 
@@ -205,6 +251,37 @@ export function readImage(bytes: Uint8Array, file: string, hdus: readonly FitsHd
   }
   const headers = index > 0 ? [h, hdus[0].header] : [h];
   return { format: 'fits-image', wavelengthA: wl, air, flux, ivar, mask, headers, where: { hdu: hdu.index }, wavelengthRule: rule, noiseFrom };
+}
+
+/** Rows in the survey layout flux, inverse variance, wavelength, and-mask, or-mask. */
+const FIVE_ROW_LAYOUT = 5;
+
+/**
+ * A 5-row image without BANDIDn or EXTEN0 is read in the survey layout flux,
+ * inverse variance, wavelength, and-mask, or-mask only when the data agree:
+ * row 3 positive and strictly increasing (and within 1 % of the header's
+ * wavelength axis where there is one), rows 4 and 5 whole numbers >= 0.
+ * Then row 4 (the and-mask) masks pixels; otherwise rows 3-5 are ignored, as
+ * for any undescribed row. Returns the mask and the row-3 wavelengths (null
+ * when the header has its own axis, which is then used).
+ */
+function undescribedFiveRows(
+  bytes: Uint8Array, hdu: FitsHdu, n: number, file: string, hdus: readonly FitsHdu[], index: number,
+): { mask: Uint8Array; wl: Float64Array | null } | null {
+  const andMask = imageRow(bytes, hdu, 3, file);
+  if (!isMaskLike(andMask) || !isMaskLike(imageRow(bytes, hdu, 4, file))) return null;
+  const wlRow = imageRow(bytes, hdu, 2, file);
+  if (!isIncreasingPositive(wlRow)) return null;
+  let axis: SpectralAxis | null = null;
+  try {
+    axis = spectralAxis(hdu.header, n, file, hdu.index) ?? (index > 0 ? spectralAxis(hdus[0].header, n, file, 0) : null);
+  } catch {
+    axis = null; // an unusable header axis is reported by the main path
+  }
+  if (axis) {
+    for (let i = 0; i < n; i++) if (!(Math.abs(wlRow[i] / axis.wavelengthA[i] - 1) <= 0.01)) return null;
+  }
+  return { mask: toMask(andMask), wl: axis ? null : wlRow };
 }
 
 /** Non-zero (or NaN) mask values mark bad pixels. */

@@ -11,6 +11,8 @@
  * test/data, 4610 of 4622 pixels of one file carry and_mask bits, 4605 of them with
  * a positive inverse variance. Such masks are used only when the file has no
  * uncertainty; otherwise the pipeline's zero inverse variance marks bad pixels.
+ * Exception: the and-mask row of an image whose rows EXTEN0 names (the 2-D
+ * survey layout 'Flux Inverse ... Andmask Ormask'), which is applied (image.ts).
  */
 export type Role = 'wave' | 'loglam' | 'wave-air' | 'flux' | 'ivar' | 'variance' | 'error' | 'mask' | 'bitmask';
 

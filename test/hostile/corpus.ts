@@ -444,6 +444,7 @@ function wcsEntries(): HostileEntry[] {
   e.push({ name: 'wcs-ctype-garbage.fits', bytes: img([C('CTYPE1', '??/\\%'), ...without('CTYPE1')]), outcome: 'error', says: /wavelength/ });
   e.push({ name: 'wcs-cunit-unknown.fits', bytes: img([C('CUNIT1', 'furlong'), ...without('CUNIT1')]), outcome: 'error', says: /furlong/ });
   e.push({ name: 'wcs-dcflag-7.fits', bytes: img([C('CTYPE1', 'LINEAR'), C('DC-FLAG', 7), ...without('CTYPE1')]), outcome: 'error', says: /DC-FLAG/ });
+  e.push({ name: 'wcs-dcflag-minus-1.fits', bytes: img([C('CTYPE1', 'LINEAR'), C('DC-FLAG', -1), ...without('CTYPE1')]), outcome: 'error', says: /keyword DC-FLAG\): DC-FLAG = -1: .*not dispersion-corrected/ });
   e.push({ name: 'wcs-dcflag-log-overflow.fits', bytes: img([C('CTYPE1', 'LINEAR'), C('DC-FLAG', 1), ...without('CTYPE1')]), outcome: 'error' });
   e.push({ name: 'wcs-coeff1-zero.fits', bytes: img([C('COEFF0', 3.6), C('COEFF1', 0)]), outcome: 'error', says: /COEFF1/ });
   e.push({ name: 'wcs-coeff0-huge.fits', bytes: img([C('COEFF0', 400), C('COEFF1', 1e-4)]), outcome: 'error' });

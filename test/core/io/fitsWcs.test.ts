@@ -47,6 +47,19 @@ describe('spectral WCS through readFits (files written with our writer)', () => 
     expectAt(s.wavelengthA, [3800, 3800.875083, 3887.61811, 4782.815154]);
   });
 
+  it('DC-FLAG = -1 (not dispersion-corrected) is refused with a message naming the keyword', () => {
+    // DC-FLAG: -1 no dispersion correction, 0 linear, 1 log-linear (legacy convention, from memory).
+    for (const ctype of ['LINEAR', 'PIXEL', 'WAVE']) {
+      const e = readError(() => readFits(imageFile([['CTYPE1', ctype], ['DC-FLAG', -1], ['CRPIX1', 1], ['CRVAL1', 1], ['CDELT1', 1]]), 'arc.fits'));
+      expect(e.where.keyword, ctype).toBe('DC-FLAG');
+      expect(e.where.hdu).toBe(0);
+      expect(e.reason).toMatch(/^DC-FLAG = -1: the spectrum is not dispersion-corrected/);
+      expect(e.message).toMatch(/^arc\.fits \(HDU 0, keyword DC-FLAG\): /);
+    }
+    // Without the keyword (or with 0) the same header is an ordinary linear axis.
+    expect(readFits(imageFile([['CTYPE1', 'LINEAR'], ['DC-FLAG', 0], ['CRPIX1', 1], ['CRVAL1', 4000], ['CDELT1', 1]]), 'ok.fits').wavelengthA[1]).toBe(4001);
+  });
+
   it("S3: 'AWAV' linear is read as air and converted to vacuum (Morton 2000 inversion, reference.md sec. 9)", () => {
     const s = readFits(imageFile([['CTYPE1', 'AWAV'], ['CUNIT1', 'Angstrom'], ['CRPIX1', 1], ['CRVAL1', 3800], ['CDELT1', 1]]), 's3.fits');
     // Morton 2000 values [C]; WCSLIB's Edlen-1953 values (3801.078918, ...) differ by < 3e-5 A.

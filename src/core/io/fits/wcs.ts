@@ -8,7 +8,8 @@
  *
  * Older conventions, read as common practice:
  * - CTYPE1 'LINEAR' (or absent) with CRVAL1/CDELT1; `DC-FLAG = 1` means the
- *   world values are log10(lambda) (not part of the FITS standard).
+ *   world values are log10(lambda) (not part of the FITS standard);
+ *   `DC-FLAG = -1` means not dispersion-corrected, and such a header is refused.
  * - COEFF0/COEFF1 (survey log-linear spectra): lambda_i = 10^(COEFF0 + COEFF1 i), i 0-based.
  *
  * Units: CUNIT1 when given, else `units=` in WAT1_001, else decided from the size
@@ -82,6 +83,13 @@ const LEGACY_LINEAR = new Set(['', 'LINEAR', 'WAVELENGTH', 'LAMBDA', 'WAVE-WAV',
  * missing step, zero step).
  */
 export function spectralAxis(h: FitsHeader, n: number, file: string, hdu: number): SpectralAxis | null {
+  if (h.num('DC-FLAG', file, hdu) === -1) {
+    throw new SpectrumReadError(
+      file,
+      'DC-FLAG = -1: the spectrum is not dispersion-corrected (its pixels have no wavelength calibration); calibrate it in wavelength first',
+      { hdu, keyword: 'DC-FLAG' },
+    );
+  }
   const ctypeRaw = h.str('CTYPE1');
   const ctype = (ctypeRaw ?? '').toUpperCase();
   const std = /^(WAVE|AWAV)(?:-+([A-Z0-9]{3}))?$/.exec(ctype);
@@ -173,8 +181,8 @@ function legacyAxis(h: FitsHeader, n: number, file: string, hdu: number): Spectr
   const { crval, crpix, step } = linearTerms(h, file, hdu, 1);
   const dcFlag = h.num('DC-FLAG', file, hdu);
   const log10 = dcFlag === 1;
-  if (dcFlag !== undefined && dcFlag !== 0 && dcFlag !== 1 && dcFlag !== -1) {
-    throw new SpectrumReadError(file, `DC-FLAG = ${dcFlag} is not understood (0 linear, 1 log10)`, { hdu, keyword: 'DC-FLAG' });
+  if (dcFlag !== undefined && dcFlag !== 0 && dcFlag !== 1) {
+    throw new SpectrumReadError(file, `DC-FLAG = ${dcFlag} is not understood (0 linear, 1 log10; -1, not dispersion-corrected, is refused)`, { hdu, keyword: 'DC-FLAG' });
   }
   const wl = new Float64Array(n);
   for (let i = 0; i < n; i++) {

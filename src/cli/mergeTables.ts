@@ -3,7 +3,7 @@
  * the shards belong together (same input list), that none is missing or
  * repeated, and that every input appears exactly once.
  */
-import { columnByName, guardCell, parseCatalogueCsv, quoteCsv, type ParsedCatalogue } from '../core/table';
+import { columnByName, csvRecord, guardCell, parseCatalogueCsv, type ParsedCatalogue } from '../core/table';
 import { parseShard } from './shard';
 
 export class MergeError extends Error {
@@ -63,10 +63,12 @@ export function mergeShardTables(tables: readonly ShardTable[]): string {
   // Same order as a single unsharded run (sorted input list).
   rows.sort((a, b) => (a.r.file < b.r.file ? -1 : a.r.file > b.r.file ? 1 : 0));
 
-  const lines: string[] = [];
-  for (const [k, v] of Object.entries(first.t.meta)) lines.push(k === 'shard' ? `# merged_shards: ${count}` : `# ${k}: ${v}`);
+  let text = '';
+  for (const [k, v] of Object.entries(first.t.meta)) text += k === 'shard' ? `# merged_shards: ${count}\r\n` : `# ${k}: ${v}\r\n`;
   const cols = first.t.columns;
-  lines.push(cols.map(quoteCsv).join(','));
-  for (const { r } of rows) lines.push(cols.map((c) => quoteCsv(guardCell(columnByName(c), r[c] ?? ''))).join(','));
-  return lines.map((l) => l + '\r\n').join('');
+  const defs = cols.map(columnByName);
+  text += csvRecord(cols);
+  // Cells were unguarded on reading; guard them again on writing (csv.ts).
+  for (const { r } of rows) text += csvRecord(cols.map((c, i) => guardCell(defs[i], r[c] ?? '')));
+  return text;
 }

@@ -1,9 +1,13 @@
 /**
  * CSV export and import of the catalogue.
  *
+ * Cells are quoted and read by d3-dsv (csvFormatRow, csvParseRows); this
+ * module adds what a catalogue needs on top: CRLF record ends, the '#' header
+ * block, the formula guard, and a strict check of the quoting with line numbers.
+ *
  * Writing follows RFC 4180 (Shafranovich 2005): CRLF line ends; a cell holding
  * a comma, double quote, CR or LF is enclosed in double quotes with inner quotes
- * doubled. Before the column-name row comes an optional block of '#' comment
+ * doubled (d3-dsv quotes exactly these). Before the column-name row comes an optional block of '#' comment
  * lines (provenance and the caution); RFC 4180 has no comments, so callers
  * whose readers choke on them turn the block off.
  *
@@ -15,6 +19,7 @@
  * Text that already starts with an apostrophe gets one more, so that reading
  * back (strip one leading apostrophe) is lossless.
  */
+import { csvFormatRow, csvFormatValue, csvParseRows } from 'd3-dsv';
 import type { ColumnDef, TableRow } from './columns';
 import { isPlainValue } from './formatCell';
 import { metaEntries, type ExportMeta } from './meta';
@@ -29,7 +34,12 @@ export function guardCell(col: ColumnDef | undefined, cell: string): string {
 
 /** RFC 4180 quoting: enclose in double quotes when needed, doubling inner quotes. */
 export function quoteCsv(cell: string): string {
-  return /[",\r\n]/.test(cell) ? `"${cell.replace(/"/g, '""')}"` : cell;
+  return csvFormatValue(cell);
+}
+
+/** One CSV record: the cells, quoted where needed, comma-separated, ended with CRLF (RFC 4180 sec. 2 rules 1-2). */
+export function csvRecord(cells: readonly string[]): string {
+  return csvFormatRow(cells) + '\r\n';
 }
 
 export interface CsvOptions {
@@ -59,15 +69,14 @@ export function rowCell(row: Readonly<Record<string, unknown>>, name: string): s
 export function csvWriter(columns: readonly ColumnDef[], meta: ExportMeta, options: CsvOptions = {}): TableWriter {
   return {
     begin() {
-      const lines: string[] = [];
+      let text = '';
       if (options.headerBlock ?? true) {
-        for (const [k, v] of metaEntries(meta, columns)) lines.push(`# ${k}: ${v}`);
+        for (const [k, v] of metaEntries(meta, columns)) text += `# ${k}: ${v}\r\n`;
       }
-      lines.push(columns.map((c) => quoteCsv(c.name)).join(','));
-      return lines.map((l) => l + '\r\n').join('');
+      return text + csvRecord(columns.map((c) => c.name));
     },
     row(row) {
-      return columns.map((c) => quoteCsv(guardCell(c, rowCell(row, c.name)))).join(',') + '\r\n';
+      return csvRecord(columns.map((c) => guardCell(c, rowCell(row, c.name))));
     },
     end() {
       return '';
@@ -102,10 +111,10 @@ export interface ParsedCatalogue {
 
 /**
  * Read a catalogue CSV back (e.g. to merge the tables of several shards).
- * Accepts CRLF or LF line ends, a leading byte-order mark and a leading '#'
+ * Accepts CRLF, LF or CR line ends, a leading byte-order mark and a leading '#'
  * block; undoes the formula guard. Throws CatalogueParseError on an unclosed
- * quote, a row whose cell count differs from the column names, or a repeated
- * column name.
+ * quote, text after a closing quote, a row whose cell count differs from the
+ * column names, or a repeated column name.
  */
 export function parseCatalogueCsv(text: string): ParsedCatalogue {
   let pos = text.charCodeAt(0) === 0xfeff ? 1 : 0;
@@ -120,48 +129,12 @@ export function parseCatalogueCsv(text: string): ParsedCatalogue {
     pos = skipBreak(text, end);
     line++;
   }
+  const body = text.slice(pos);
+  checkQuoting(body, line);
   const records: Array<{ line: number; cells: string[] }> = [];
-  while (pos < text.length) {
-    const start = line;
-    const cells: string[] = [];
-    for (;;) {
-      let cell = '';
-      if (text[pos] === '"') {
-        pos++;
-        for (;;) {
-          if (pos >= text.length) throw new CatalogueParseError(start, 'quoted cell is never closed');
-          const ch = text[pos];
-          if (ch === '"') {
-            if (text[pos + 1] === '"') {
-              cell += '"';
-              pos += 2;
-              continue;
-            }
-            pos++;
-            break;
-          }
-          if (ch === '\n') line++;
-          cell += ch;
-          pos++;
-        }
-        if (pos < text.length && text[pos] !== ',' && text[pos] !== '\r' && text[pos] !== '\n') {
-          throw new CatalogueParseError(line, 'text after a closing quote');
-        }
-      } else {
-        const from = pos;
-        while (pos < text.length && text[pos] !== ',' && text[pos] !== '\r' && text[pos] !== '\n') pos++;
-        cell = text.slice(from, pos);
-      }
-      cells.push(cell);
-      if (text[pos] === ',') {
-        pos++;
-        continue;
-      }
-      pos = skipBreak(text, pos);
-      line++;
-      break;
-    }
-    if (!(cells.length === 1 && cells[0] === '')) records.push({ line: start, cells }); // skip blank lines
+  for (const cells of csvParseRows(body)) {
+    if (!(cells.length === 1 && cells[0] === '')) records.push({ line, cells }); // skip blank lines
+    line += 1 + cells.reduce((n, c) => n + lineBreaks(c), 0);
   }
   if (records.length === 0) throw new CatalogueParseError(line, 'no column-name row');
   const columns = records[0].cells;
@@ -181,6 +154,50 @@ export function parseCatalogueCsv(text: string): ParsedCatalogue {
     return row;
   });
   return { meta, columns, rows };
+}
+
+/** A quoted cell, inner quotes doubled (written unrolled so that a long cell costs no backtracking). */
+const QUOTED_CELL = /"[^"]*(?:""[^"]*)*"/y;
+/** An unquoted cell: anything up to the next comma or line end. */
+const PLAIN_CELL = /[^,\r\n]*/y;
+
+/**
+ * d3-dsv reads leniently: it takes the character after a closing quote as a
+ * separator, and reads an unclosed quote to the end of the text. In a
+ * catalogue either means damage (e.g. a shard table cut off mid-write), so
+ * the quoting is checked first (RFC 4180 sec. 2 rules 5-7), with the line.
+ */
+function checkQuoting(text: string, firstLine: number): void {
+  let pos = 0;
+  let line = firstLine;
+  while (pos < text.length) {
+    const cell = text[pos] === '"' ? QUOTED_CELL : PLAIN_CELL;
+    cell.lastIndex = pos;
+    const m = cell.exec(text);
+    if (!m) throw new CatalogueParseError(line, 'quoted cell is never closed');
+    line += lineBreaks(m[0]);
+    pos = cell.lastIndex;
+    if (pos >= text.length) return;
+    const ch = text[pos];
+    if (ch === ',') {
+      pos++;
+    } else if (ch === '\r' || ch === '\n') {
+      pos = skipBreak(text, pos);
+      line++;
+    } else {
+      throw new CatalogueParseError(line, 'text after a closing quote');
+    }
+  }
+}
+
+/** Line breaks (CRLF, LF or CR) inside a cell. */
+function lineBreaks(cell: string): number {
+  let n = 0;
+  for (let i = 0; i < cell.length; i++) {
+    const ch = cell.charCodeAt(i);
+    if (ch === 10 || (ch === 13 && cell.charCodeAt(i + 1) !== 10)) n++;
+  }
+  return n;
 }
 
 /** Undo guardCell: drop the one apostrophe the writer added. */

@@ -17,6 +17,7 @@ export {
   parseCatalogueCsv,
   guardCell,
   quoteCsv,
+  csvRecord,
   CatalogueParseError,
   type CsvOptions,
   type ParsedCatalogue,

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { catalogueCsv, CatalogueParseError, guardCell, parseCatalogueCsv, quoteCsv } from '../../../src/core/table/csv';
+import { catalogueCsv, CatalogueParseError, csvRecord, guardCell, parseCatalogueCsv, quoteCsv } from '../../../src/core/table/csv';
 import { AUTOMATIC_COLUMNS, CATALOGUE_COLUMNS, columnByName } from '../../../src/core/table/columns';
 import { automaticRow, catalogueRow } from '../../../src/core/table/rows';
 import { DEFAULT_COSMOLOGY } from '../../../src/core/cosmology';
@@ -20,6 +20,13 @@ describe('quoteCsv(cell): RFC 4180 sec. 2 rules 5-7', () => {
     expect(quoteCsv('two\nlines')).toBe('"two\nlines"');
     expect(quoteCsv('cr\rhere')).toBe('"cr\rhere"');
     expect(quoteCsv('"')).toBe('""""');
+  });
+});
+
+describe('csvRecord(cells): RFC 4180 sec. 2 rules 1-7', () => {
+  it('joins quoted cells with commas and ends the record with CRLF', () => {
+    expect(csvRecord(['aaa', 'b,b', 'c"c', ''])).toBe('aaa,"b,b","c""c",\r\n');
+    expect(csvRecord(['two\r\nlines', 'x'])).toBe('"two\r\nlines",x\r\n');
   });
 });
 
@@ -134,6 +141,24 @@ describe('parseCatalogueCsv(text)', () => {
     expect(() => parseCatalogueCsv('a,b\r\n"x"y,2\r\n')).toThrow(/text after a closing quote/);
     expect(() => parseCatalogueCsv('a,a\r\n1,2\r\n')).toThrow(/appears twice/);
     expect(() => parseCatalogueCsv('# only: comments\r\n')).toThrow(/no column-name row/);
+  });
+  it('reads CR-only line ends, and a quote inside an unquoted cell as text (as written by hand)', () => {
+    expect(parseCatalogueCsv('a,b\r1,2\r3,"x\ry"\r').rows).toEqual([{ a: '1', b: '2' }, { a: '3', b: 'x\ry' }]);
+    expect(parseCatalogueCsv('a,b\r\nx"y,2\r\n').rows).toEqual([{ a: 'x"y', b: '2' }]);
+  });
+  it('reports an unclosed quote at the line where the cell opens, after the header block', () => {
+    try {
+      parseCatalogueCsv('# software: x\r\na,b\r\n1,2\r\n3,"open\r\nmore\r\n');
+      expect.unreachable();
+    } catch (e) {
+      expect(e).toBeInstanceOf(CatalogueParseError);
+      expect((e as Error).message).toBe('line 4: quoted cell is never closed');
+    }
+  });
+  it('reads a cell of a million characters with doubled quotes back unchanged', () => {
+    const long = 'ab"'.repeat(333_334);
+    const parsed = parseCatalogueCsv(csvRecord(['a', 'b']) + csvRecord([long, 'x']));
+    expect(parsed.rows[0].a).toBe(long);
   });
   it('reports the line of a row that follows a multi-line quoted cell', () => {
     try {

@@ -20,7 +20,15 @@ export function createFitWorker(): FitWorkerHandle {
 
 /** A pool worker over a real Worker. */
 export function createPoolWorker(): PoolWorker {
-  const { api, terminate } = createFitWorker();
-  // The pool loads a fresh copy of the bytes per file, so they can move to the worker.
+  return poolWorkerOver(createFitWorker());
+}
+
+/**
+ * A pool worker over any comlink link to the fit worker API (a real Worker in
+ * the app, a MessageChannel in tests). The pool loads a fresh copy of the
+ * bytes per file, so they move to the worker rather than being copied: the
+ * caller's buffer is empty afterwards.
+ */
+export function poolWorkerOver({ api, terminate }: FitWorkerHandle): PoolWorker {
   return { fitFile: (bytes, file) => api.fitFile(transfer(bytes, [bytes.buffer as ArrayBuffer]), file) as Promise<FitResult>, terminate };
 }

@@ -10,10 +10,11 @@ import type { FitResult, LineMeasurement, Spectrum, SpectrumClass } from '../cor
 import { SpectrumReadError } from '../core/types';
 import { fitBytes } from '../core/pipeline';
 import { readSpectrum } from '../core/io/readSpectrum';
-import { refitNear, solutionModel } from '../core/engine';
-import { locateFeature, suggestLines, type LineSuggestion } from '../core/engine/identify';
-import { measureLines } from '../core/engine/measureLines';
+import { locateFeature, measureLines, refitNear, solutionModel, suggestLines } from '../core/engine';
 import { LruCache } from './lruCache';
+
+/** A catalogue line a located feature could be (the engine's own answer type). */
+export type LineSuggestion = ReturnType<typeof suggestLines>[number];
 
 /** A spectrum as sent to the page for drawing (same fields as Spectrum). */
 export type SpectrumPayload = Spectrum;
@@ -57,7 +58,12 @@ export function fitResultBuffers(result: FitResult): ArrayBuffer[] {
   return out;
 }
 
-function copyForTransfer(s: Spectrum): Spectrum {
+/**
+ * A copy of a cached spectrum with the buffers it owns, to be moved to the
+ * page. Comlink looks up the transfer list by the object a call returns, so
+ * the list must be attached to the whole answer, not to a part of it.
+ */
+function copyForTransfer(s: Spectrum): { copy: Spectrum; buffers: ArrayBuffer[] } {
   const copy: Spectrum = {
     file: s.file,
     format: s.format,
@@ -69,7 +75,7 @@ function copyForTransfer(s: Spectrum): Spectrum {
   };
   const buffers = [copy.wavelengthA.buffer, copy.flux.buffer, copy.mask.buffer] as ArrayBuffer[];
   if (copy.ivar) buffers.push(copy.ivar.buffer as ArrayBuffer);
-  return transfer(copy, buffers);
+  return { copy, buffers };
 }
 
 export function createFitWorkerApi(cacheEntries = SPECTRUM_CACHE_ENTRIES): FitWorkerApi & { cache: LruCache<string, Spectrum> } {
@@ -92,7 +98,8 @@ export function createFitWorkerApi(cacheEntries = SPECTRUM_CACHE_ENTRIES): FitWo
         }
         cache.set(key, spectrum);
       }
-      return { kind: 'spectrum', spectrum: copyForTransfer(spectrum) };
+      const { copy, buffers } = copyForTransfer(spectrum);
+      return transfer({ kind: 'spectrum', spectrum: copy }, buffers);
     },
     refitNear(key, zCentre) {
       const spectrum = cache.get(key);

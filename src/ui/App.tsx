@@ -52,7 +52,12 @@ function Shell({ autoDemo, fetchFn }: { autoDemo: boolean; fetchFn?: typeof fetc
       const store = async () => {
         if (!c.files.length) return;
         droppedSoFar.current += c.files.length;
-        await session.addFiles(c.files).catch((e: unknown) => setNotices((n) => [...n, `Could not store the files: ${(e as Error)?.message ?? e}`]));
+        await session
+          .addFilesReport(c.files)
+          .then(({ duplicates }) => {
+            if (duplicates.length) setNotices((n) => [...n, duplicateNotice(duplicates)]);
+          })
+          .catch((e: unknown) => setNotices((n) => [...n, `Could not store the files: ${(e as Error)?.message ?? e}`]));
       };
       if (c.partial) return store();
       const total = droppedSoFar.current + c.files.length;
@@ -68,8 +73,9 @@ function Shell({ autoDemo, fetchFn }: { autoDemo: boolean; fetchFn?: typeof fetc
     setDemoState('Loading the demo set…');
     try {
       const files = await loadDemo(fetchFn ?? fetch.bind(globalThis), (done, total) => setDemoState(`Loading the demo set… ${done} of ${total}`));
-      await session.addFiles(files);
+      const { duplicates } = await session.addFilesReport(files);
       setDemoState(null);
+      if (duplicates.length) setNotices((n) => [...n, duplicateNotice(duplicates)]);
     } catch (e) {
       setDemoState(`The demo set could not be loaded: ${(e as Error)?.message ?? e}`);
     }
@@ -131,4 +137,11 @@ function Shell({ autoDemo, fetchFn }: { autoDemo: boolean; fetchFn?: typeof fetc
       )}
     </div>
   );
+}
+
+/** Says which files were not added because the batch has them already (same name and content). */
+export function duplicateNotice(paths: readonly string[]): string {
+  const shown = paths.slice(0, 3).join(', ');
+  const more = paths.length > 3 ? ` and ${paths.length - 3} more` : '';
+  return `Already in the batch, not added again (same name and content): ${shown}${more}.`;
 }

@@ -43,7 +43,7 @@ describe('first screen', () => {
     fireEvent.change(input, { target: { files: [file] } });
     await screen.findByTestId('spectrum-list');
     await waitUntil(() => session.getSnapshot().rows[0]?.status === 'ok', 'fit');
-    const row = await screen.findByText('101').then((el) => el.closest('[role=row]') as HTMLElement);
+    const row = await screen.findByText('· 101 px').then((el) => el.closest('[role=row]') as HTMLElement);
     expect(within(row).getByText('4000–5000 Å')).toBeTruthy();
     db.close();
   });

@@ -61,7 +61,7 @@ describe('LineNamingList', () => {
 });
 
 describe('naming a line in the review panel', () => {
-  it('click a feature -> worker locates it -> choose a line -> z set by refitNear and kept as a line identification', async () => {
+  it('click a feature -> worker locates it -> choose a line -> z is exactly that line\'s, recorded with the line and its observed wavelength', async () => {
     const { session, db } = await makeSession();
     await session.setReviewer('Tester');
     await session.addFiles([{ path: 'q.txt', bytes: textBytes('q') }]);
@@ -76,15 +76,39 @@ describe('naming a line in the review panel', () => {
     expect(review.nameFeature).toHaveBeenCalledWith(expect.any(String), 5000);
     fireEvent.click(within(list).getByText('Mg II'));
     await screen.findByText(/line Mg II at 5000\.4/);
-    expect(review.refitNear).toHaveBeenCalledWith(expect.any(String), suggestions[1].z);
+    // No refit behind the reviewer's back: z is the line's own, observed / rest - 1 (the definition of redshift).
+    expect(review.refitNear).not.toHaveBeenCalled();
+    const lineZ = answer.feature!.centreA / suggestions[1].restA - 1;
+    expect(Number(screen.getByTestId('solution-z').textContent)).toBeCloseTo(lineZ, 5);
     act(() => void fireEvent.keyDown(window, { key: 'a' }));
     await waitUntil(() => !!session.getSnapshot().rows[0].decision, 'decision');
-    expect(session.getSnapshot().rows[0].decision).toMatchObject({
-      state: 'changed',
-      howSet: 'line',
-      z: suggestions[1].z + 0.0002,
-      lineId: { id: 'MgII', observedA: 5000.4 },
+    const d = session.getSnapshot().rows[0].decision!;
+    expect(d).toMatchObject({ state: 'changed', howSet: 'line', lineId: { id: 'MgII', observedA: 5000.4 } });
+    expect(d.z).toBe(lineZ);
+    // The error is the centre's, carried to z: sigma_z = sigma_observed / rest.
+    expect(d.zErr).toBeCloseTo(answer.feature!.centreErrA / suggestions[1].restA, 12);
+    db.close();
+  });
+
+  it('refining after naming a line is a separate step (r) that says how far z moved', async () => {
+    const { session, db } = await makeSession();
+    await session.addFiles([{ path: 'q.txt', bytes: textBytes('q') }]);
+    await waitUntil(() => session.getSnapshot().rows[0]?.status === 'ok', 'fit');
+    const review = fakeReview({
+      nameFeature: vi.fn(async () => answer),
+      refitNear: vi.fn(async (_k: string, z: number) => makeResult('q.txt', { z: z + 0.002, zErr: 0.0003, class: 'qso' })),
     });
+    render(<App services={{ session, review }} />);
+    fireEvent.click(await screen.findByText('click feature at 5000'));
+    fireEvent.click(within(await screen.findByRole('listbox', { name: 'Possible lines' })).getByText('Mg II'));
+    await screen.findByText(/line Mg II at 5000\.4/);
+    const lineZ = answer.feature!.centreA / suggestions[1].restA - 1;
+    act(() => void fireEvent.keyDown(window, { key: 'r' }));
+    const moved = await screen.findByTestId('refined-from');
+    expect(review.refitNear).toHaveBeenCalledWith(expect.any(String), lineZ);
+    expect(moved.textContent).toContain('moved +0.00200');
+    expect(screen.getByTestId('solution').textContent).toContain('refit near line Mg II');
+    expect(Number(screen.getByTestId('solution-z').textContent)).toBeCloseTo(lineZ + 0.002, 5);
     db.close();
   });
 

@@ -6,6 +6,8 @@
 import type { IncomingFile } from '../state/session';
 
 export const DEMO_FOLDER = 'sample-spectra';
+/** Sub-folder of the demo set holding files that are meant to fail. */
+export const BROKEN_FOLDER = 'broken';
 
 export interface DemoIndex {
   files: string[];
@@ -48,7 +50,10 @@ export async function loadDemo(
       }
     }),
   );
-  for (const rel of index.files) out.push({ path: `${DEMO_FOLDER}/${rel}`, bytes: results.get(rel)! });
+  // The deliberately broken examples come after the spectra, so the list opens on something to review.
+  const broken = (rel: string) => rel.startsWith(`${BROKEN_FOLDER}/`);
+  const ordered = [...index.files.filter((r) => !broken(r)), ...index.files.filter(broken)];
+  for (const rel of ordered) out.push({ path: `${DEMO_FOLDER}/${rel}`, bytes: results.get(rel)! });
   return out;
 }
 

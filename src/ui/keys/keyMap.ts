@@ -4,6 +4,8 @@
  * values. The spectrum plot's own keys (zoom, pan, reset) are in PLOT_KEYS
  * and work while the plot has focus.
  */
+import { FLAGS } from '../review/flags';
+
 export type ActionId =
   | 'next'
   | 'previous'
@@ -12,6 +14,10 @@ export type ActionId =
   | 'reject'
   | 'reopen'
   | 'candidate'
+  | 'bestOfClass'
+  | 'refine'
+  | 'flag'
+  | 'jump'
   | 'typeZ'
   | 'nameLine'
   | 'grade'
@@ -40,12 +46,16 @@ export const KEY_MAP: readonly KeyBinding[] = [
   { action: 'reject', keys: ['x'], label: 'Reject as unusable and open the next unreviewed' },
   { action: 'reopen', keys: ['u'], label: 'Undo the decision on this spectrum (back to not reviewed)' },
   { action: 'candidate', keys: ['1', '2', '3', '4', '5', '6', '7', '8', '9'], label: 'Show candidate 1 to 9 (in the line list: choose that line)' },
+  { action: 'bestOfClass', keys: ['Q', 'G', 'S'], label: 'Show the best quasar (Shift+Q), galaxy (Shift+G) or star (Shift+S) solution' },
+  { action: 'refine', keys: ['r'], label: 'Refit near the redshift shown (after naming a line or typing a z); says how far it moved' },
   { action: 'typeZ', keys: ['z'], label: 'Type a redshift' },
   { action: 'nameLine', keys: ['l'], label: 'Name a line: type its observed wavelength (or click a feature in the spectrum)' },
   { action: 'grade', keys: ['g'], label: 'Cycle your confidence grade: high, medium, low, none' },
   { action: 'note', keys: ['e'], label: 'Write a note' },
+  { action: 'flag', keys: FLAGS.map((f) => f.key), label: `Toggle a review flag: ${FLAGS.map((f) => `${f.key} ${f.label.toLowerCase()}`).join('; ')}` },
   { action: 'filter', keys: ['f'], label: 'Cycle the list filter' },
   { action: 'sort', keys: ['s'], label: 'Cycle the list order' },
+  { action: 'jump', keys: ['/'], label: 'Jump to a spectrum by name (type part of its id or file name, Enter)' },
   { action: 'focusPlot', keys: ['v'], label: 'Put the keyboard on the spectrum plot (zoom and pan keys below)' },
   { action: 'export', keys: ['t'], label: 'Open the catalogue export' },
   { action: 'cosmology', keys: ['c'], label: 'Open the cosmology settings' },

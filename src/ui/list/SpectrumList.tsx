@@ -5,8 +5,9 @@
  */
 import { useEffect, useLayoutEffect, useRef, useState, memo } from 'react';
 import type { Row } from '../state/session';
-import { displayName, isFailure, reviewState, shownZ } from './listView';
-import { fmtRangeA, fmtZ, REVIEW_LABEL, REVIEW_MARK, STATUS_LABEL } from '../format';
+import { displayName, fullName, isFailure, reviewState, shownZ, snrOf } from './listView';
+import { fmtNum, fmtRangeA, fmtZ, REVIEW_LABEL, REVIEW_MARK, STATUS_LABEL } from '../format';
+import { FLAGS, flagsOf } from '../review/flags';
 
 /** Height of one row, CSS px (fixed: the virtualisation relies on it). */
 export const ROW_HEIGHT_PX = 26;
@@ -35,6 +36,10 @@ const ListRow = memo(function ListRow({ row, index, current, onSelect }: { row: 
   const z = shownZ(row);
   const reviewedZ = state !== 'unreviewed';
   const error = s?.error;
+  const flags = flagsOf(row.decision);
+  const snr = snrOf(row);
+  const machine = s?.status === 'ok' ? s.confidence : '';
+  const yours = state !== 'unreviewed' ? (row.decision?.reviewerGrade ?? '') : '';
   return (
     <div
       role="row"
@@ -50,7 +55,7 @@ const ListRow = memo(function ListRow({ row, index, current, onSelect }: { row: 
       <span role="gridcell" className="c-warn" aria-label={failed ? 'read or fit error' : undefined}>
         {failed ? '⚠' : ''}
       </span>
-      <span role="gridcell" className="c-id" title={row.file}>
+      <span role="gridcell" className="c-id" title={fullName(row)}>
         {displayName(row)}
       </span>
       <span role="gridcell" className="c-class">
@@ -59,17 +64,30 @@ const ListRow = memo(function ListRow({ row, index, current, onSelect }: { row: 
       <span role="gridcell" className={`c-z${reviewedZ ? '' : ' auto'}`} title={reviewedZ ? 'reviewed redshift' : 'automatic redshift, not reviewed'}>
         {fmtZ(z)}
       </span>
-      <span role="gridcell" className={`c-conf conf-${s?.confidence ?? 'none'}`}>
-        {row.decision?.reviewerGrade ?? (s?.status === 'ok' ? s.confidence : '')}
+      <span role="gridcell" className={`c-conf conf-${machine || 'none'}`} title="machine grade (automatic fit)">
+        {machine}
       </span>
-      <span role="gridcell" className={`c-review review-${state}`}>
+      <span role="gridcell" className="c-yours" title="your grade">
+        {yours}
+      </span>
+      <span role="gridcell" className={`c-review review-${state}`} title={flags.length ? `flags: ${flags.map((f) => FLAGS.find((d) => d.id === f)!.label).join('; ')}` : undefined}>
         {row.status === 'ok' || row.decision ? `${REVIEW_MARK[state]} ${REVIEW_LABEL[state]}` : STATUS_LABEL[row.status]}
+        {flags.length ? <span className="flag-mark" aria-label={`${flags.length} flags`}> ⚑{flags.length}</span> : null}
       </span>
-      <span role="gridcell" className="c-pix">
-        {s && s.nPix > 0 ? s.nPix : ''}
+      <span role="gridcell" className="c-snr" title="median S/N per pixel">
+        {Number.isFinite(snr) ? fmtNum(snr, 1) : ''}
       </span>
       <span role="gridcell" className="c-range">
-        {failed ? <span className="row-error">{error}</span> : s ? fmtRangeA(s.lambdaMinA, s.lambdaMaxA) : ''}
+        {failed ? (
+          <span className="row-error">{error}</span>
+        ) : s ? (
+          <>
+            <span>{fmtRangeA(s.lambdaMinA, s.lambdaMaxA)}</span>
+            {s.nPix > 0 ? <span className="muted"> · {s.nPix} px</span> : null}
+          </>
+        ) : (
+          ''
+        )}
       </span>
     </div>
   );
@@ -117,10 +135,11 @@ export function SpectrumList({ rows, currentKey, onSelect }: SpectrumListProps) 
         <span role="columnheader" className="c-id">id</span>
         <span role="columnheader" className="c-class">class</span>
         <span role="columnheader" className="c-z">z</span>
-        <span role="columnheader" className="c-conf">conf.</span>
+        <span role="columnheader" className="c-conf" title="machine grade of the automatic fit">machine</span>
+        <span role="columnheader" className="c-yours" title="the reviewer's grade">yours</span>
         <span role="columnheader" className="c-review">review</span>
-        <span role="columnheader" className="c-pix">pixels</span>
-        <span role="columnheader" className="c-range">range / error</span>
+        <span role="columnheader" className="c-snr" title="median S/N per pixel">S/N</span>
+        <span role="columnheader" className="c-range">range, pixels / error</span>
       </div>
       <div className="list-body" ref={box} onScroll={(e) => setScrollTop(e.currentTarget.scrollTop)} data-testid="spectrum-list-body">
         <div className="list-spacer" style={{ height: rows.length * ROW_HEIGHT_PX }}>

@@ -4,22 +4,25 @@
  * touching the DOM, and tested directly.
  */
 import type { Row } from '../state/session';
-import type { ReviewState } from '../../core/types';
+import type { Grade, ReviewState } from '../../core/types';
+import { flagsOf } from '../review/flags';
 
-export type ListFilter = 'all' | 'unreviewed' | 'reviewed' | 'failures';
-export type ListSort = 'batch' | 'lowConfidence' | 'redshift' | 'name';
+export type ListFilter = 'all' | 'unreviewed' | 'reviewed' | 'flagged' | 'failures';
+export type ListSort = 'batch' | 'lowConfidence' | 'redshift' | 'snr' | 'name';
 
 export const FILTERS: readonly { id: ListFilter; label: string }[] = [
   { id: 'all', label: 'All spectra' },
   { id: 'unreviewed', label: 'Not yet reviewed' },
   { id: 'reviewed', label: 'Reviewed' },
+  { id: 'flagged', label: 'Flagged by a reviewer' },
   { id: 'failures', label: 'Only failures' },
 ];
 
 export const SORTS: readonly { id: ListSort; label: string }[] = [
   { id: 'batch', label: 'Order loaded' },
-  { id: 'lowConfidence', label: 'Low confidence first' },
+  { id: 'lowConfidence', label: 'Low machine grade first' },
   { id: 'redshift', label: 'Redshift' },
+  { id: 'snr', label: 'Low S/N first' },
   { id: 'name', label: 'Name' },
 ];
 
@@ -37,6 +40,30 @@ export function displayName(row: Row): string {
   return row.summary?.objectId || row.file.slice(row.file.lastIndexOf('/') + 1);
 }
 
+/** Full identity for a tooltip: object id (when the header gave one) and the file as given. */
+export function fullName(row: Row): string {
+  return row.summary?.objectId ? `${row.summary.objectId}\n${row.file}` : row.file;
+}
+
+/**
+ * First row whose object id or file contains `text` (case-insensitive),
+ * starting after `fromKey` and wrapping, so pressing Enter again finds the
+ * next match. null when none.
+ */
+export function findByName(rows: readonly Row[], text: string, fromKey: string | null = null): Row | null {
+  const t = text.trim().toLowerCase();
+  if (!t) return null;
+  const start = fromKey ? rows.findIndex((r) => r.key === fromKey) : -1;
+  for (let i = 1; i <= rows.length; i++) {
+    const r = rows[(start + i + rows.length) % rows.length];
+    if ((r.summary?.objectId ?? '').toLowerCase().includes(t) || r.file.toLowerCase().includes(t)) return r;
+  }
+  return null;
+}
+
+/** Grades from least to most sure: the order of "low machine grade first". */
+export const GRADE_ORDER: readonly Grade[] = ['none', 'low', 'medium', 'high'];
+
 function matches(row: Row, filter: ListFilter): boolean {
   switch (filter) {
     case 'all':
@@ -45,14 +72,27 @@ function matches(row: Row, filter: ListFilter): boolean {
       return reviewState(row) === 'unreviewed';
     case 'reviewed':
       return reviewState(row) !== 'unreviewed';
+    case 'flagged':
+      return flagsOf(row.decision).length > 0;
     case 'failures':
       return isFailure(row);
   }
 }
 
-/** Machine score for ordering; rows without a usable fit sort after every fitted one. */
+/** Machine grade rank (0 = none ... 3 = high); NaN for rows without a usable fit, which sort last. */
+function gradeKey(row: Row): number {
+  return row.summary && row.summary.status === 'ok' ? GRADE_ORDER.indexOf(row.summary.confidence) : NaN;
+}
+
+/** Machine score; NaN without a usable fit. */
 function scoreKey(row: Row): number {
-  return row.summary && row.summary.status === 'ok' ? row.summary.score : Infinity;
+  return row.summary && row.summary.status === 'ok' ? row.summary.score : NaN;
+}
+
+/** Median S/N of the input; NaN when unknown. */
+export function snrOf(row: Row): number {
+  const v = row.summary?.medianSnr;
+  return typeof v === 'number' && Number.isFinite(v) ? v : NaN;
 }
 
 /** Redshift shown for a row: the reviewer's when decided, else the automatic one. */
@@ -74,10 +114,13 @@ export function viewRows(rows: readonly Row[], filter: ListFilter, sort: ListSor
       out.sort((a, b) => a.order - b.order);
       break;
     case 'lowConfidence':
-      out.sort((a, b) => nanLast(scoreKey(a) === Infinity ? NaN : scoreKey(a), scoreKey(b) === Infinity ? NaN : scoreKey(b)) || a.order - b.order);
+      out.sort((a, b) => nanLast(gradeKey(a), gradeKey(b)) || nanLast(scoreKey(a), scoreKey(b)) || a.order - b.order);
       break;
     case 'redshift':
       out.sort((a, b) => nanLast(shownZ(a), shownZ(b)) || a.order - b.order);
+      break;
+    case 'snr':
+      out.sort((a, b) => nanLast(snrOf(a), snrOf(b)) || a.order - b.order);
       break;
     case 'name':
       out.sort((a, b) => displayName(a).localeCompare(displayName(b), undefined, { numeric: true }) || a.order - b.order);

@@ -20,6 +20,8 @@ export interface ResultSummary {
   lambdaMaxA: number;
   objectId?: string;
   nCandidates: number;
+  /** Median S/N per pixel of the input (absent in summaries stored by older versions). */
+  medianSnr?: number;
 }
 
 export function summarise(result: FitResult): ResultSummary {
@@ -35,6 +37,7 @@ export function summarise(result: FitResult): ResultSummary {
     lambdaMaxA: result.input.lambdaMaxA,
     nCandidates: result.candidates.length,
   };
+  if (Number.isFinite(result.input.medianSnr)) s.medianSnr = result.input.medianSnr;
   if (result.error !== undefined) s.error = result.error;
   if (result.input.meta.objectId !== undefined) s.objectId = result.input.meta.objectId;
   return s;

@@ -159,6 +159,16 @@ export class SessionDb {
     for (const key of keys) visit(key, await this.db.get('results', key));
   }
 
+  /** Forget some files: their entries, bytes, results, summaries and decisions. */
+  async removeFiles(keys: readonly string[]): Promise<void> {
+    await this.guard('removing files', async () => {
+      const stores = ['entries', 'bytes', 'results', 'summaries', 'decisions'] as const;
+      const tx = this.db.transaction([...stores], 'readwrite');
+      for (const k of keys) for (const st of stores) void tx.objectStore(st).delete(k);
+      await tx.done;
+    });
+  }
+
   /** Forget the whole batch (settings such as reviewer name and cosmology stay). */
   async clearBatch(): Promise<void> {
     await this.guard('clearing the batch', async () => {

@@ -1,6 +1,7 @@
 /** The reviewer's side: own grade, note, accept / reject / undo. */
 import type { Ref } from 'react';
 import type { Grade } from '../../core/types';
+import { FLAGS, type ReviewFlag } from './flags';
 
 const GRADES: (Grade | '')[] = ['', 'high', 'medium', 'low', 'none'];
 
@@ -10,6 +11,8 @@ export interface DecisionBoxProps {
   note: string;
   onNote: (n: string) => void;
   noteRef?: Ref<HTMLTextAreaElement>;
+  flags: readonly ReviewFlag[];
+  onToggleFlag: (f: ReviewFlag) => void;
   canAccept: boolean;
   /** 'Accept' for the automatic solution, 'Accept change' for anything else. */
   acceptLabel: string;
@@ -37,6 +40,18 @@ export function DecisionBox(p: DecisionBoxProps) {
         Note
         <textarea ref={p.noteRef} value={p.note} onChange={(e) => p.onNote(e.target.value)} rows={2} maxLength={2000} aria-label="Note" />
       </label>
+      <fieldset className="flags" aria-label="Review flags">
+        <legend>Flags</legend>
+        {FLAGS.map((f) => {
+          const on = p.flags.includes(f.id);
+          return (
+            <button key={f.id} type="button" className={`flag-button${on ? ' on' : ''}`} aria-pressed={on} title={f.label} onClick={() => p.onToggleFlag(f.id)} data-testid={`flag-${f.id}`}>
+              {on ? '⚑ ' : ''}
+              {f.short} <kbd>{f.key}</kbd>
+            </button>
+          );
+        })}
+      </fieldset>
       <div className="decision-buttons">
         <button type="button" className="primary" onClick={p.onAccept} disabled={!p.canAccept} data-testid="accept">
           {p.acceptLabel} <kbd>a</kbd>

@@ -19,6 +19,7 @@ import { CandidatesSection } from './CandidatesSection';
 import { SolutionLine, isAutoShown } from './SolutionLine';
 import { markersFor, SKY } from './markers';
 import { nextGrade, type DecisionDraft } from './solution';
+import { flagByKey } from './flags';
 import { useReviewSession } from './useReviewSession';
 import { fmtNum, fmtRangeA } from '../format';
 
@@ -59,8 +60,19 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
             onReopen();
             return true;
           case 'candidate':
-            rs.pickCandidate(Number(k) - 1);
+            rs.pickKey(Number(k));
             return true;
+          case 'bestOfClass':
+            rs.pickClass(k === 'Q' ? 'qso' : k === 'G' ? 'galaxy' : 'star');
+            return true;
+          case 'refine':
+            void rs.refineShown();
+            return true;
+          case 'flag': {
+            const f = flagByKey(k);
+            if (f) rs.toggle(f.id);
+            return !!f;
+          }
           case 'typeZ':
             zInput.current?.focus();
             zInput.current?.select();
@@ -94,6 +106,9 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
 
   const decided = row.decision && row.decision.state !== 'unreviewed' ? row.decision : null;
   const summary = row.summary;
+  // A file that could not be read or fitted: its error once, and only what can be done with it (reject it, or remove it from the list).
+  const failed = row.status === 'failed' || row.status === 'timeout';
+  const specError = spec.kind === 'error' && !(failed && summary?.error && summary.error === spec.message) ? spec.message : null;
 
   return (
     <section className="review-panel" aria-label="Review" data-testid="review-panel">
@@ -107,7 +122,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
         )}
       </header>
 
-      <SolutionLine solution={solution} decided={decided} summary={summary} />
+      <SolutionLine solution={solution} decided={decided} summary={summary} keyed={rs.keyed} onRefine={solution && rs.ready ? () => void rs.refineShown() : undefined} />
 
       {row.status !== 'ok' && summary?.error && (
         <p className="error-text" role="alert" data-testid="review-error">
@@ -147,11 +162,12 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
           <p className="muted">Opening the spectrum…</p>
         ) : spec.kind === 'missing' ? (
           <p className="muted">The raw file is not stored in this session (it was imported without spectra). Drop the file again to see it.</p>
-        ) : (
-          <p className="error-text">{spec.message}</p>
-        )}
+        ) : specError ? (
+          <p className="error-text">{specError}</p>
+        ) : null}
       </div>
 
+      {!failed && (
       <PlotTools
         smoothingPx={smoothingPx}
         onSmoothing={setSmoothingPx}
@@ -167,6 +183,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
         lambdaRef={lambdaInput}
         zRef={zInput}
       />
+      )}
 
       {naming &&
         (naming.answer ? (
@@ -178,6 +195,9 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
         ))}
 
       <div className="review-columns">
+        {failed ? (
+          <p className="muted">No fit, so no redshift to review: reject the file as unusable (x) to record that, or remove the failed files from the batch (toolbar).</p>
+        ) : (
         <CandidatesSection
           result={result}
           currentZ={solution?.z ?? null}
@@ -185,12 +205,15 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
           onPick={rs.pickCandidate}
           onPickZ={(z) => void rs.refitAt(z, 'refit')}
         />
+        )}
         <DecisionBox
           grade={rs.grade}
           onGrade={rs.setGrade}
           note={rs.note}
           onNote={rs.setNote}
           noteRef={noteInput}
+          flags={rs.flags}
+          onToggleFlag={rs.toggle}
           canAccept={!!solution}
           acceptLabel={isAutoShown(solution) || !solution ? 'Accept' : 'Accept change'}
           onAccept={rs.accept}
@@ -199,10 +222,13 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
         />
       </div>
 
-      <h3>Lines at this redshift</h3>
-      {solution ? <LineTable lines={solution.lines} /> : <p className="muted">No redshift.</p>}
-
-      <DerivedPanel z={solution?.z ?? null} cls={solution?.cls ?? 'unknown'} cosmology={cosmology} reviewed={!!decided} />
+      {!failed && (
+        <>
+          <h3>Lines at this redshift</h3>
+          {solution ? <LineTable lines={solution.lines} /> : <p className="muted">No redshift.</p>}
+          <DerivedPanel z={solution?.z ?? null} cls={solution?.cls ?? 'unknown'} cosmology={cosmology} reviewed={!!decided} />
+        </>
+      )}
     </section>
   );
 }

@@ -3,7 +3,9 @@
  * decision built from it records. Pure, so the decision rules are tested
  * without rendering.
  */
-import type { FitResult, Grade, HowSet, LineMeasurement, ReviewDecision, SpectrumClass } from '../../core/types';
+import type { Candidate, FitResult, Grade, HowSet, LineMeasurement, ReviewDecision, SpectrumClass } from '../../core/types';
+import { lineById } from '../../core/lines/catalogue';
+import type { ReviewFlag } from './flags';
 
 export interface Solution {
   z: number;
@@ -18,6 +20,32 @@ export interface Solution {
   lines: LineMeasurement[] | null;
   /** Template family whose model is drawn over the data (when known). */
   family?: string;
+  /** Set by a refit: the redshift it started from and how that one was set (display only). */
+  refinedFrom?: { z: number; how: string };
+}
+
+/** Candidate keys 1-9 reach at most this many candidates. */
+export const CANDIDATE_KEYS = 9;
+
+/** Index of the best candidate of a class (candidates are ranked best first), or -1. */
+export function bestOfClass(candidates: readonly Candidate[], cls: SpectrumClass): number {
+  return candidates.findIndex((c) => c.class === cls);
+}
+
+/**
+ * Which candidates the number keys reach, in rank order: the best of every
+ * class always, then the next best overall, up to `max`. So a star that lost
+ * to nine galaxy minima is still one key away.
+ */
+export function keyedCandidates(candidates: readonly Candidate[], max = CANDIDATE_KEYS): number[] {
+  if (candidates.length <= max) return candidates.map((_, i) => i);
+  const chosen = new Set<number>();
+  for (const c of candidates) {
+    const i = bestOfClass(candidates, c.class);
+    if (chosen.size < max) chosen.add(i);
+  }
+  for (let i = 0; i < candidates.length && chosen.size < max; i++) chosen.add(i);
+  return [...chosen].sort((a, b) => a - b);
 }
 
 /** Family whose model to draw: the solution's own, else a typical one for its class. */
@@ -57,6 +85,36 @@ export function solutionFromDecision(d: ReviewDecision, result: FitResult | null
   };
 }
 
+/**
+ * The class a named line speaks for: the shown class when its markers hold
+ * the line, else the first class whose lines include it (broad lines: quasar;
+ * narrow emission or stellar absorption: galaxy).
+ */
+export function classForLine(lineId: string, current: SpectrumClass, hasLine: (cls: SpectrumClass, lineId: string) => boolean): SpectrumClass {
+  if (current !== 'unknown' && hasLine(current, lineId)) return current;
+  const roles = lineById(lineId)?.roles ?? [];
+  if (roles.includes('qso-broad')) return 'qso';
+  if (roles.includes('narrow') || roles.includes('absorption')) return 'galaxy';
+  return current;
+}
+
+/**
+ * Naming a line: z is exactly the one that line implies, observed / rest - 1
+ * (the definition of redshift), with the error of the measured centre,
+ * sigma_z = sigma_observed / rest. A refit is a separate, explicit step.
+ */
+export function lineSolution(line: { lineId: string; restA: number }, observedA: number, observedErrA: number, cls: SpectrumClass): Solution {
+  return {
+    z: observedA / line.restA - 1,
+    zErr: Number.isFinite(observedErrA) ? observedErrA / line.restA : NaN,
+    cls,
+    howSet: 'line',
+    candidateIndex: null,
+    lineId: { id: line.lineId, observedA },
+    lines: null,
+  };
+}
+
 /** Solution from a refit near a chosen z (through a line, a typed value or the fit-quality plot). */
 export function refitSolution(refit: FitResult, howSet: HowSet, fallbackZ: number, fallbackClass: SpectrumClass, lineId?: { id: string; observedA: number }): Solution {
   const ok = refit.status === 'ok' && Number.isFinite(refit.z);
@@ -74,10 +132,10 @@ export function refitSolution(refit: FitResult, howSet: HowSet, fallbackZ: numbe
 }
 
 /** The decision parts the panel decides; reviewer and time are added when it is stored. */
-export type DecisionDraft = Omit<ReviewDecision, 'reviewer' | 'decidedAt'>;
+export type DecisionDraft = Omit<ReviewDecision, 'reviewer' | 'decidedAt'> & { flags?: ReviewFlag[] };
 
 /** Accept what is shown: 'accepted' when it is the automatic best, 'changed' otherwise. */
-export function acceptDraft(file: string, s: Solution, grade: Grade | null, note: string): DecisionDraft {
+export function acceptDraft(file: string, s: Solution, grade: Grade | null, note: string, flags: readonly ReviewFlag[] = []): DecisionDraft {
   const d: DecisionDraft = {
     file,
     state: s.howSet === 'auto' ? 'accepted' : 'changed',
@@ -89,12 +147,15 @@ export function acceptDraft(file: string, s: Solution, grade: Grade | null, note
     note,
   };
   if (s.lineId) d.lineId = s.lineId;
+  if (flags.length) d.flags = [...flags];
   return d;
 }
 
 /** Reject as unusable: no redshift, class unknown. */
-export function rejectDraft(file: string, grade: Grade | null, note: string): DecisionDraft {
-  return { file, state: 'rejected', z: null, zErr: null, class: 'unknown', reviewerGrade: grade, howSet: 'auto', note };
+export function rejectDraft(file: string, grade: Grade | null, note: string, flags: readonly ReviewFlag[] = []): DecisionDraft {
+  const d: DecisionDraft = { file, state: 'rejected', z: null, zErr: null, class: 'unknown', reviewerGrade: grade, howSet: 'auto', note };
+  if (flags.length) d.flags = [...flags];
+  return d;
 }
 
 const GRADE_CYCLE: readonly (Grade | null)[] = [null, 'high', 'medium', 'low', 'none'];

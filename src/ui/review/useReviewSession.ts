@@ -7,16 +7,23 @@
  * for a spectrum the reviewer has left is dropped.
  */
 import { useCallback, useEffect, useRef, useState } from 'react';
-import type { FitResult, Grade, Spectrum } from '../../core/types';
+import type { FitResult, Grade, Spectrum, SpectrumClass } from '../../core/types';
 import type { LineSuggestion } from '../../core/engine/identify';
 import type { FeatureAnswer } from '../../worker/fitWorkerApi';
 import { useServices } from '../state/SessionContext';
 import type { Row } from '../state/session';
 import { fmtZ } from '../format';
+import { flagsOf, isReviewFlag, toggleFlag, type ReviewFlag } from './flags';
+import { markersFor } from './markers';
+import { describeHow } from './SolutionLine';
 import {
   acceptDraft,
   autoSolution,
+  bestOfClass,
   candidateSolution,
+  classForLine,
+  keyedCandidates,
+  lineSolution,
   modelFamily,
   refitSolution,
   rejectDraft,
@@ -32,6 +39,34 @@ export interface NamingState {
   answer: FeatureAnswer | null;
 }
 
+/** The staged, unsaved choice on one spectrum as kept over a reload. */
+interface PanelDraft {
+  key: string;
+  solution: Omit<Solution, 'lines'> | null;
+  typedZ: string;
+  grade: Grade | null;
+  note: string;
+  flags: ReviewFlag[];
+}
+
+function asPanelDraft(d: unknown, key: string): PanelDraft | null {
+  const o = d as Partial<PanelDraft> | null;
+  if (!o || o.key !== key) return null;
+  const s = o.solution;
+  const solution = s && typeof s === 'object' && typeof s.z === 'number' && typeof s.howSet === 'string' && typeof s.cls === 'string' ? s : null;
+  return {
+    key,
+    solution,
+    typedZ: typeof o.typedZ === 'string' ? o.typedZ : '',
+    grade: o.grade ?? null,
+    note: typeof o.note === 'string' ? o.note : '',
+    flags: Array.isArray(o.flags) ? o.flags.filter(isReviewFlag) : [],
+  };
+}
+
+/** Wait this long after the last change before writing the staged choice (typing a note). */
+const DRAFT_WRITE_DELAY_MS = 250;
+
 export interface ReviewSession {
   result: FitResult | null;
   spec: SpectrumState;
@@ -42,6 +77,10 @@ export interface ReviewSession {
   setGrade: (g: Grade | null | ((g: Grade | null) => Grade | null)) => void;
   note: string;
   setNote: (n: string) => void;
+  flags: ReviewFlag[];
+  toggle: (f: ReviewFlag) => void;
+  /** Candidate indices the number keys reach, in key order (key 1 = first). */
+  keyed: number[];
   naming: NamingState | null;
   closeNaming: () => void;
   busy: string | null;
@@ -53,7 +92,14 @@ export interface ReviewSession {
   setTypedA: (s: string) => void;
   refine: boolean;
   setRefine: (b: boolean) => void;
+  /** Show candidate index i. */
   pickCandidate: (i: number) => void;
+  /** Show the candidate on number key n (1-9). */
+  pickKey: (n: number) => void;
+  /** Show the best candidate of a class. */
+  pickClass: (cls: SpectrumClass) => void;
+  /** Refit near the shown z (an explicit step after naming a line or typing a z). */
+  refineShown: () => Promise<void>;
   refitAt: (z: number, howSet: 'typed' | 'refit' | 'line', lineId?: { id: string; observedA: number }, doRefine?: boolean) => Promise<void>;
   nameFeatureAt: (clickA: number) => Promise<void>;
   chooseLine: (s: LineSuggestion) => void;
@@ -76,6 +122,7 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
   const [solution, setSolution] = useState<Solution | null>(null);
   const [grade, setGrade] = useState<Grade | null>(row.decision?.reviewerGrade ?? null);
   const [note, setNote] = useState(row.decision?.note ?? '');
+  const [flags, setFlags] = useState<ReviewFlag[]>(() => flagsOf(row.decision));
   const [naming, setNaming] = useState<NamingState | null>(null);
   const [busy, setBusy] = useState<string | null>(null);
   const [typedZ, setTypedZ] = useState('');
@@ -84,6 +131,9 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
   const [message, setMessage] = useState<string | null>(null);
   const alive = useRef(key);
   alive.current = key;
+  /** True once the reviewer has changed anything on this spectrum since it was opened or decided. */
+  const dirty = useRef(false);
+  const [loaded, setLoaded] = useState(false);
 
   // A spectrum opened while its fit was still running is loaded again when the fit lands.
   const fitted = row.summary !== undefined;
@@ -100,7 +150,21 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
       if (stale) return;
       setResult(r);
       const fromDecision = row.decision && r ? solutionFromDecision(row.decision, r) : null;
-      setSolution(fromDecision ?? (r ? autoSolution(r) : null));
+      const draft = asPanelDraft(session.stagedDraft(), key);
+      if (draft) {
+        // The choice staged here before a reload: shown again, still unsaved.
+        setSolution(draft.solution ? { ...draft.solution, lines: null } : fromDecision ?? (r ? autoSolution(r) : null));
+        setTypedZ(draft.typedZ);
+        setGrade(draft.grade);
+        setNote(draft.note);
+        setFlags(draft.flags);
+        dirty.current = true;
+      } else {
+        // A choice staged on another spectrum is dropped when this one opens.
+        session.saveDraft(null);
+        setSolution(fromDecision ?? (r ? autoSolution(r) : null));
+      }
+      setLoaded(true);
       try {
         let ans = await review.openSpectrum(key, row.file, null);
         if (ans.kind === 'need-bytes') {
@@ -157,11 +221,18 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
 
   const ready = spec.kind === 'ready';
 
+  const touch = () => {
+    dirty.current = true;
+  };
+
+  const keyed = result ? keyedCandidates(result.candidates) : [];
+
   const pickCandidate = useCallback(
     (i: number) => {
       if (!result) return;
       const s = candidateSolution(result, i);
       if (s) {
+        touch();
         setSolution(s);
         setMessage(null);
       }
@@ -169,9 +240,29 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
     [result],
   );
 
+  const pickKey = useCallback(
+    (n: number) => {
+      if (!result) return;
+      const i = keyedCandidates(result.candidates)[n - 1];
+      if (i !== undefined) pickCandidate(i);
+    },
+    [result, pickCandidate],
+  );
+
+  const pickClass = useCallback(
+    (cls: SpectrumClass) => {
+      if (!result) return;
+      const i = bestOfClass(result.candidates, cls);
+      if (i >= 0) pickCandidate(i);
+      else setMessage(`This fit has no ${cls === 'qso' ? 'quasar' : cls} solution among its candidates. Type a redshift (z) to try one.`);
+    },
+    [result, pickCandidate],
+  );
+
   const refitAt = useCallback(
     async (z: number, howSet: 'typed' | 'refit' | 'line', lineId?: { id: string; observedA: number }, doRefine = true) => {
       const forKey = key;
+      touch();
       if (!doRefine || !ready) {
         setSolution({ z, zErr: NaN, cls: solution?.cls ?? result?.class ?? 'unknown', howSet, candidateIndex: null, lineId, lines: null });
         return;
@@ -183,7 +274,9 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
         if (!r) setMessage('The spectrum is not open in the worker; try again.');
         else {
           if (r.status !== 'ok') setMessage(`No fit near z = ${fmtZ(z)}: ${r.error ?? r.status}. The redshift is kept as given.`);
-          setSolution(refitSolution(r, howSet, z, solution?.cls ?? result?.class ?? 'unknown', lineId));
+          const s = refitSolution(r, howSet, z, solution?.cls ?? result?.class ?? 'unknown', lineId);
+          if (r.status === 'ok') s.refinedFrom = { z, how: howSet === 'typed' ? 'the typed value' : howSet === 'line' ? 'the named line' : 'the chosen z' };
+          setSolution(s);
         }
       } finally {
         if (alive.current === forKey) setBusy(null);
@@ -206,12 +299,37 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
 
   const chooseLine = useCallback(
     (s: LineSuggestion) => {
-      const observedA = naming?.answer?.feature?.centreA ?? naming?.clickA ?? NaN;
+      const f = naming?.answer?.feature;
+      const observedA = f?.centreA ?? naming?.clickA ?? NaN;
       setNaming(null);
-      void refitAt(s.z, 'line', { id: s.lineId, observedA });
+      setMessage(null);
+      touch();
+      const cls = classForLine(s.lineId, solution?.cls ?? result?.class ?? 'unknown', (c, id) => markersFor(c).some((m) => m.id === id));
+      setSolution(lineSolution(s, observedA, f?.centreErrA ?? NaN, cls));
     },
-    [naming, refitAt],
+    [naming, solution, result],
   );
+
+  const refineShown = useCallback(async () => {
+    const from = solution;
+    if (!from || !ready) return;
+    const forKey = key;
+    touch();
+    setBusy('Refitting near the shown redshift…');
+    try {
+      const r = await review.refitNear(key, from.z);
+      if (alive.current !== forKey) return;
+      if (!r) setMessage('The spectrum is not open in the worker; try again.');
+      else if (r.status !== 'ok') setMessage(`No fit near z = ${fmtZ(from.z)}: ${r.error ?? r.status}. The redshift is kept as it was.`);
+      else {
+        const s = refitSolution(r, 'refit', from.z, from.cls, from.lineId);
+        s.refinedFrom = { z: from.z, how: from.howSet === 'typed' ? 'the typed value' : describeHow(from, keyedCandidates(result?.candidates ?? [])) };
+        setSolution(s);
+      }
+    } finally {
+      if (alive.current === forKey) setBusy(null);
+    }
+  }, [solution, ready, key, review, result]);
 
   const submitTypedZ = useCallback(() => {
     const z = Number(typedZ);
@@ -229,12 +347,46 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
       setMessage(result?.status === 'ok' ? 'No solution to accept.' : 'This file has no fit: reject it as unusable (x), or set a redshift.');
       return;
     }
-    onDecision(acceptDraft(row.file, solution, grade, note));
-  }, [solution, result, row.file, grade, note, onDecision]);
+    onDecision(acceptDraft(row.file, solution, grade, note, flags));
+  }, [solution, result, row.file, grade, note, flags, onDecision]);
 
-  const reject = useCallback(() => onDecision(rejectDraft(row.file, grade, note)), [row.file, grade, note, onDecision]);
+  const reject = useCallback(() => onDecision(rejectDraft(row.file, grade, note, flags)), [row.file, grade, note, flags, onDecision]);
 
   const closeNaming = useCallback(() => setNaming(null), []);
+
+  const toggle = useCallback((f: ReviewFlag) => {
+    touch();
+    setFlags((cur) => toggleFlag(cur, f));
+  }, []);
+
+  // A stored decision (accept, reject, undo) ends the staged choice.
+  const decision = row.decision;
+  const lastDecision = useRef(decision);
+  useEffect(() => {
+    const before = lastDecision.current;
+    lastDecision.current = decision;
+    if (before === decision) return;
+    dirty.current = false;
+    session.saveDraft(null);
+    if (before && !decision) {
+      // Undo: back to what an unreviewed spectrum shows, with nothing staged.
+      setSolution(result ? autoSolution(result) : null);
+      setGrade(null);
+      setNote('');
+      setFlags([]);
+      setTypedZ('');
+      setNaming(null);
+      setMessage(null);
+    }
+  }, [decision, result, session]);
+
+  // Keep the staged choice over a reload (written shortly after the last change).
+  useEffect(() => {
+    if (!loaded || !dirty.current) return;
+    const d: PanelDraft = { key, solution: solution ? stripLines(solution) : null, typedZ, grade, note, flags };
+    const t = setTimeout(() => session.saveDraft(d), DRAFT_WRITE_DELAY_MS);
+    return () => clearTimeout(t);
+  }, [loaded, key, solution, typedZ, grade, note, flags, session]);
 
   return {
     result,
@@ -243,21 +395,36 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
     solution,
     model,
     grade,
-    setGrade,
+    setGrade: (g) => {
+      touch();
+      setGrade(g);
+    },
     note,
-    setNote,
+    setNote: (n: string) => {
+      touch();
+      setNote(n);
+    },
+    flags,
+    toggle,
+    keyed,
     naming,
     closeNaming,
     busy,
     message,
     setMessage,
     typedZ,
-    setTypedZ,
+    setTypedZ: (z: string) => {
+      touch();
+      setTypedZ(z);
+    },
     typedA,
     setTypedA,
     refine,
     setRefine,
     pickCandidate,
+    pickKey,
+    pickClass,
+    refineShown,
     refitAt,
     nameFeatureAt,
     chooseLine,
@@ -265,4 +432,9 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
     accept,
     reject,
   };
+}
+
+function stripLines(s: Solution): Omit<Solution, 'lines'> {
+  const { lines: _lines, ...rest } = s;
+  return rest;
 }

@@ -66,6 +66,24 @@ export interface IncomingFile {
   bytes: Uint8Array;
 }
 
+/** Where the reviewer was: list filter, order, the open spectrum and the list's width. Kept over a reload. */
+export interface SavedView {
+  filter?: string;
+  sort?: string;
+  currentKey?: string | null;
+  listWidthPx?: number;
+}
+
+/**
+ * What the reviewer staged on the open spectrum and has not saved yet (a
+ * picked candidate, a named line, a typed z, grade, note, flags). One at a
+ * time: it belongs to `key` and is dropped when another spectrum is opened.
+ * The shape is the review panel's; the session only keeps it.
+ */
+export interface StagedDraft {
+  key: string;
+}
+
 const NOTIFY_INTERVAL_MS = 50;
 
 const EMPTY_PROGRESS: Progress = { total: 0, done: 0, failed: 0, waiting: 0, active: false, cancelled: 0 };
@@ -83,6 +101,8 @@ export class Session {
   private persistError: string | null = null;
   private restored = false;
   private nextOrder = 0;
+  private view: SavedView | null = null;
+  private draft: StagedDraft | null = null;
 
   constructor(
     readonly db: SessionDb,
@@ -150,12 +170,16 @@ export class Session {
 
   /** Read the stored batch, decisions and settings; re-queue files a closed tab left unfitted. */
   async restore(): Promise<void> {
-    const [loaded, reviewer, cosmology] = await Promise.all([
+    const [loaded, reviewer, cosmology, view, draft] = await Promise.all([
       this.db.loadSession(),
       this.db.getSetting<string>('reviewer'),
       this.db.getSetting<CosmologyParams>('cosmology'),
+      this.db.getSetting<SavedView>('view'),
+      this.db.getSetting<StagedDraft>('draft'),
     ]);
     if (typeof reviewer === 'string' && reviewer.trim()) this.reviewer = reviewer;
+    if (view && typeof view === 'object') this.view = view;
+    if (draft && typeof draft === 'object' && typeof draft.key === 'string') this.draft = draft;
     if (cosmology && isValidCosmology(cosmology)) this.cosmology = cosmology;
     const unfitted: string[] = [];
     for (const e of loaded.entries) {
@@ -180,7 +204,13 @@ export class Session {
    * Returns the keys of the files in the order given.
    */
   async addFiles(files: IncomingFile[]): Promise<string[]> {
+    return (await this.addFilesReport(files)).keys;
+  }
+
+  /** As addFiles, and also says which files were already in the batch (by path, in the order given). */
+  async addFilesReport(files: IncomingFile[]): Promise<{ keys: string[]; duplicates: string[] }> {
     const keys: string[] = [];
+    const duplicates: string[] = [];
     const fresh: { entry: EntryRecord; bytes: Uint8Array }[] = [];
     const seen = new Set<string>();
     for (const f of files) {
@@ -190,6 +220,7 @@ export class Session {
       seen.add(key);
       const existing = this.rowsByKey.get(key);
       if (existing) {
+        if (existing.hasBytes) duplicates.push(f.path);
         if (!existing.hasBytes) {
           await this.db.attachBytes(key, f.bytes);
           this.setRow({ ...existing, hasBytes: true });
@@ -212,7 +243,7 @@ export class Session {
     }
     this.flush();
     if (fresh.length) void this.fitKeys(fresh.map((f) => f.entry.key));
-    return keys;
+    return { keys, duplicates };
   }
 
   /** Fit (or fit again) the given files; joins a running batch when one is going. */
@@ -345,9 +376,46 @@ export class Session {
     await this.db.putSetting('cosmology', this.cosmology).catch(() => undefined);
   }
 
+  /** The place saved by the last page (read at restore), or null. */
+  savedView(): SavedView | null {
+    return this.view;
+  }
+
+  /** Remember the place (merged into what is saved). */
+  saveView(v: SavedView): void {
+    this.view = { ...this.view, ...v };
+    void this.db.putSetting('view', this.view).catch(() => undefined);
+  }
+
+  /** The unsaved staged choice, or null. */
+  stagedDraft(): StagedDraft | null {
+    return this.draft;
+  }
+
+  /** Keep (or with null, drop) the unsaved staged choice. */
+  saveDraft(d: StagedDraft | null): void {
+    if (d === null && this.draft === null) return;
+    this.draft = d;
+    void this.db.putSetting('draft', d).catch(() => undefined);
+  }
+
   dismissPersistError(): void {
     this.persistError = null;
     this.flush();
+  }
+
+  /** Take files out of the batch (e.g. files that could not be read); they can be dropped in again. */
+  async removeFiles(keys: readonly string[]): Promise<void> {
+    const gone = new Set(keys.filter((k) => this.rowsByKey.has(k)));
+    if (!gone.size) return;
+    try {
+      await this.db.removeFiles([...gone]);
+    } finally {
+      for (const k of gone) this.rowsByKey.delete(k);
+      this.order = this.order.filter((k) => !gone.has(k));
+      if (this.draft && gone.has(this.draft.key)) this.draft = null;
+      this.flush();
+    }
   }
 
   /** Forget the batch (settings stay). */

@@ -3,11 +3,11 @@
  * right, panels over both. One keyboard handler drives the whole loop
  * (KEY_MAP); keys typed into a text field stay there.
  */
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import React, { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { ReviewDecision } from '../../core/types';
 import { useServices, useSessionSnapshot } from '../state/SessionContext';
 import { SpectrumList } from '../list/SpectrumList';
-import { FILTERS, SORTS, cycle, nextUnreviewed, reviewState, viewRows, type ListFilter, type ListSort } from '../list/listView';
+import { FILTERS, SORTS, cycle, findByName, isFailure, nextUnreviewed, reviewState, viewRows, type ListFilter, type ListSort } from '../list/listView';
 import { actionForKey, keyFor } from '../keys/keyMap';
 import { ReviewPanel, type ReviewHandle } from '../review/ReviewPanel';
 import type { DecisionDraft } from '../review/solution';
@@ -26,6 +26,11 @@ export interface WorkbenchProps {
   onExportSession: () => void;
 }
 
+/** The list keeps at least 280 px, the review panel at least 480 px. */
+export function clampListWidth(px: number, bodyPx: number): number {
+  return Math.round(Math.max(280, Math.min(px, Math.max(280, bodyPx - 480))));
+}
+
 function isTextTarget(t: EventTarget | null): boolean {
   const el = t as HTMLElement | null;
   if (!el || !el.tagName) return false;
@@ -39,13 +44,20 @@ function isTextTarget(t: EventTarget | null): boolean {
 export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchProps) {
   const { session } = useServices();
   const snap = useSessionSnapshot();
-  const [filter, setFilter] = useState<ListFilter>('all');
-  const [sort, setSort] = useState<ListSort>('batch');
-  const [currentKey, setCurrentKey] = useState<string | null>(null);
+  // The place saved by the last page: filter, order and the open spectrum come back after a reload.
+  const [saved] = useState(() => session.savedView());
+  const [filter, setFilter] = useState<ListFilter>(() => (FILTERS.some((f) => f.id === saved?.filter) ? (saved!.filter as ListFilter) : 'all'));
+  const [sort, setSort] = useState<ListSort>(() => (SORTS.some((s) => s.id === saved?.sort) ? (saved!.sort as ListSort) : 'batch'));
+  const [currentKey, setCurrentKey] = useState<string | null>(() => (saved?.currentKey && session.row(saved.currentKey) ? saved.currentKey : null));
   const [panel, setPanel] = useState<PanelId>(null);
   const [pending, setPending] = useState<DecisionDraft | null>(null);
   const [allDone, setAllDone] = useState(false);
   const reviewRef = useRef<ReviewHandle>(null);
+  const jumpInput = useRef<HTMLInputElement>(null);
+  const [jumpText, setJumpText] = useState('');
+  const [jumpNote, setJumpNote] = useState<string | null>(null);
+  const [listWidthPx, setListWidthPx] = useState<number | null>(() => (typeof saved?.listWidthPx === 'number' ? saved.listWidthPx : null));
+  const [confirmRemove, setConfirmRemove] = useState(false);
 
   const rows = useMemo(() => viewRows(snap.rows, filter, sort), [snap.rows, filter, sort]);
   const current = currentKey ? session.row(currentKey) ?? null : null;
@@ -64,6 +76,10 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
       setCurrentKey(first.key);
     }
   }, [rows, currentKey, current, filter]);
+
+  useEffect(() => {
+    session.saveView({ filter, sort, currentKey, listWidthPx: listWidthPx ?? undefined });
+  }, [session, filter, sort, currentKey, listWidthPx]);
 
   const choose = useCallback((key: string) => {
     autoPicked.current = false;
@@ -87,6 +103,19 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
       setAllDone(false);
     } else setAllDone(true);
   }, [rows, currentKey, filter, choose]);
+
+  /** Jump to the next spectrum whose id or file contains the text; outside the view, the filter opens up to all. */
+  const jump = useCallback(() => {
+    const inView = findByName(rows, jumpText, currentKey);
+    const hit = inView ?? findByName(snap.rows, jumpText, currentKey);
+    if (!hit) {
+      setJumpNote(jumpText.trim() ? `No spectrum matches "${jumpText.trim()}".` : null);
+      return;
+    }
+    if (!inView) setFilter('all');
+    setJumpNote(null);
+    choose(hit.key);
+  }, [rows, snap.rows, jumpText, currentKey, choose]);
 
   const store = useCallback(
     async (draft: DecisionDraft, reviewer: string) => {
@@ -162,6 +191,10 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
         case 'session':
           setPanel('session');
           break;
+        case 'jump':
+          jumpInput.current?.focus();
+          jumpInput.current?.select();
+          break;
         default:
           used = reviewRef.current?.handle(action, e.key) ?? false;
       }
@@ -171,11 +204,34 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
     return () => window.removeEventListener('keydown', onKey);
   }, [panel, pending, move, goNextUnreviewed]);
 
+  // Files that could not be read or fitted are not counted as work to review (unless someone decided on them).
   const counts = useMemo(() => {
     let reviewed = 0;
-    for (const r of snap.rows) if (reviewState(r) !== 'unreviewed') reviewed++;
-    return { reviewed, total: snap.rows.length };
+    let failed = 0;
+    let total = 0;
+    for (const r of snap.rows) {
+      const decided = reviewState(r) !== 'unreviewed';
+      if (isFailure(r)) failed++;
+      if (decided) reviewed++;
+      if (decided || !isFailure(r)) total++;
+    }
+    return { reviewed, total, failed };
   }, [snap.rows]);
+  const failedKeys = useMemo(() => snap.rows.filter((r) => isFailure(r) && reviewState(r) === 'unreviewed').map((r) => r.key), [snap.rows]);
+
+  const startResize = (e: React.PointerEvent<HTMLDivElement>) => {
+    const body = e.currentTarget.parentElement;
+    if (!body) return;
+    const left = body.getBoundingClientRect().left;
+    const move = (ev: PointerEvent) => setListWidthPx(clampListWidth(ev.clientX - left, body.clientWidth));
+    const up = () => {
+      window.removeEventListener('pointermove', move);
+      window.removeEventListener('pointerup', up);
+    };
+    window.addEventListener('pointermove', move);
+    window.addEventListener('pointerup', up);
+    e.preventDefault();
+  };
 
   return (
     <main className="workbench">
@@ -200,9 +256,44 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
             ))}
           </select>
         </label>
+        <form
+          className="inline-form jump-form"
+          onSubmit={(e) => {
+            e.preventDefault();
+            jump();
+          }}
+        >
+          <label>
+            Go to{' '}
+            <input ref={jumpInput} value={jumpText} onChange={(e) => setJumpText(e.target.value)} placeholder="id or file name" aria-label="Jump to a spectrum by name" />
+          </label>
+          <kbd>/</kbd>
+        </form>
         <span className="muted" data-testid="review-counts">
-          {counts.reviewed} of {counts.total} reviewed · {rows.length} shown
+          {counts.reviewed} of {counts.total} reviewed · {rows.length} shown{counts.failed ? ` · ${counts.failed} could not be read or fitted` : ''}
         </span>
+        {failedKeys.length > 0 &&
+          (confirmRemove ? (
+            <span className="confirm" role="group" aria-label="Confirm removal">
+              Remove {failedKeys.length} failed files from the batch?{' '}
+              <button
+                type="button"
+                onClick={() => {
+                  setConfirmRemove(false);
+                  void session.removeFiles(failedKeys).catch(() => undefined);
+                }}
+              >
+                Remove
+              </button>{' '}
+              <button type="button" onClick={() => setConfirmRemove(false)}>
+                Keep
+              </button>
+            </span>
+          ) : (
+            <button type="button" onClick={() => setConfirmRemove(true)} data-testid="remove-failed">
+              Remove failed files ({failedKeys.length})
+            </button>
+          ))}
         <span className="spacer" />
         <button type="button" onClick={() => setPanel('session')}>
           Session <kbd>{keyFor('session')}</kbd>
@@ -217,13 +308,36 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
           Keys <kbd>?</kbd>
         </button>
       </div>
+      {jumpNote && (
+        <p className="banner banner-note" role="status" data-testid="jump-note">
+          {jumpNote}
+        </p>
+      )}
       {allDone && (
         <p className="banner banner-note" role="status" data-testid="all-reviewed">
           No spectrum in this view is left to review.
         </p>
       )}
-      <div className="workbench-body">
+      <div className="workbench-body" style={listWidthPx ? ({ '--list-width': `${listWidthPx}px` } as React.CSSProperties) : undefined}>
         <SpectrumList rows={rows} currentKey={currentKey} onSelect={choose} />
+        <div
+          className="list-splitter"
+          role="separator"
+          aria-orientation="vertical"
+          aria-label="Width of the list (drag, or arrow keys)"
+          aria-valuenow={listWidthPx ?? undefined}
+          tabIndex={0}
+          onPointerDown={startResize}
+          onDoubleClick={() => setListWidthPx(null)}
+          onKeyDown={(e) => {
+            if (e.key !== 'ArrowLeft' && e.key !== 'ArrowRight') return;
+            const body = e.currentTarget.parentElement;
+            const now = listWidthPx ?? e.currentTarget.previousElementSibling?.getBoundingClientRect().width ?? 480;
+            setListWidthPx(clampListWidth(now + (e.key === 'ArrowRight' ? 40 : -40), body?.clientWidth ?? 1400));
+            e.preventDefault();
+          }}
+          data-testid="list-splitter"
+        />
         {currentRow ? (
           <ReviewPanel
             key={currentRow.key}

@@ -64,7 +64,7 @@ export const LINES: readonly CatalogueLine[] = [
 /** Lyman limit, Angstrom (from memory: 911.75). Flux blueward is absorbed at high z. */
 export const LYMAN_LIMIT_A = 911.75;
 
-/** Night-sky emission lines and telluric bands, vacuum Angstrom (reference sheet sec. 7; mostly from memory). */
+/** Night-sky emission lines and telluric bands, vacuum Angstrom (docs/reference.md sec. 7; mostly from memory). */
 export const SKY_REGIONS_A: readonly { label: string; fromA: number; toA: number }[] = [
   { label: '[O I] sky', fromA: 5572, toA: 5586 },
   { label: 'Na D sky', fromA: 5886, toA: 5903 },

@@ -1,7 +1,7 @@
 /**
  * Vacuum -> air wavelength, used only to write sample files that state air
  * wavelengths. IAU standard of Morton (2000, ApJS 130, 403), from Birch &
- * Downs (1994); applied above 2000 A only (reference sheet sec. 2).
+ * Downs (1994); applied above 2000 A only (docs/reference.md sec. 2).
  * Kept separate from the reader's conversion so that tests compare two codes.
  */
 export function vacuumToAir(vacA: number): number {

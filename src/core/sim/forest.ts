@@ -5,10 +5,10 @@
 import type { Rng } from './prng';
 import { smoothPixels, C_KMS, FWHM_PER_SIGMA } from './profiles';
 
-/** Rest wavelengths, vacuum Angstrom (Vanden Berk et al. 2001, AJ 122, 549; reference sheet sec. 1). */
+/** Rest wavelengths, vacuum Angstrom (Vanden Berk et al. 2001, AJ 122, 549; docs/reference.md sec. 1). */
 export const LYA_REST_A = 1215.67;
 export const LYB_REST_A = 1025.72;
-/** Lyman limit, Angstrom (from memory; reference sheet sec. 1). */
+/** Lyman limit, Angstrom (from memory; docs/reference.md sec. 1). */
 export const LYMAN_LIMIT_REST_A = 911.75;
 
 /**

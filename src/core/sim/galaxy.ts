@@ -54,7 +54,7 @@ function addEmission(ctx: ModelContext, flux: Float64Array, lines: TruthLine[], 
   lines.push({ id, kind: 'emission', restA, observedA: obs, offsetKms: 0, fwhmKms: fwhm, ewRestA: lineFlux / (1 + ctx.z) / contAtLine });
 }
 
-/** Star-forming galaxy. Line wavelengths: vacuum, reference sheet sec. 1 (SDSS line table). */
+/** Star-forming galaxy. Line wavelengths: vacuum, docs/reference.md sec. 1 (SDSS line table). */
 export function starFormingModel(ctx: ModelContext): ClassModel {
   const { rng, z } = ctx;
   const n = ctx.wl.length;
@@ -149,9 +149,9 @@ export function passiveModel(ctx: ModelContext): ClassModel {
     { id: 'Gband', restA: 4305.61, ew: rng.uniform(3, 6), fwhm: Math.max(fw, 600) },
     { id: 'Hgam', restA: 4341.68, ew: rng.uniform(0.5, 2.5), fwhm: fw },
     { id: 'Hbeta', restA: 4862.68, ew: rng.uniform(1, 2.5), fwhm: fw },
-    // Mg b triplet, vacuum (reference sheet sec. 1, NIST air converted).
+    // Mg b triplet, vacuum (docs/reference.md sec. 1, NIST air converted).
     ...splitMulti('Mgb', [5168.76, 5174.13, 5185.05], rng.uniform(3, 6), fw),
-    // Na D2/D1, vacuum (reference sheet sec. 1).
+    // Na D2/D1, vacuum (docs/reference.md sec. 1).
     ...splitMulti('NaD', [5891.58, 5897.56], rng.uniform(2, 5), fw),
   ];
   applyAbsorbers(ctx, flux, list, lines);

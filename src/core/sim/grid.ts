@@ -6,7 +6,7 @@ export type GridSpec =
 
 /**
  * Default grid: 3600-9200 A observed, uniform in log10 lambda with 1e-4 per
- * pixel (69.03 km/s per pixel; reference sheet sec. 3), 4,075 pixels — the
+ * pixel (69.03 km/s per pixel; docs/reference.md sec. 3), 4,075 pixels — the
  * kind of grid a typical multi-object fibre spectrograph delivers.
  */
 export const DEFAULT_GRID: GridSpec = { kind: 'log10', startA: 3600, endA: 9200, dLog10: 1e-4 };

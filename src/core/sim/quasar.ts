@@ -8,7 +8,7 @@ import { forestTransmission } from './forest';
 import { restGrid, scatterDex, type ClassModel, type ModelContext, type TruthLine } from './model';
 
 /**
- * Broad lines: vacuum rest wavelength (Angstrom; reference sheet sec. 1) and a
+ * Broad lines: vacuum rest wavelength (Angstrom; docs/reference.md sec. 1) and a
  * typical rest equivalent width (Angstrom), close to the composite of Vanden
  * Berk et al. 2001 (AJ 122, 549, Table 2; EW values from memory), each drawn
  * with 0.2-0.3 dex log-normal scatter per object. `shift` says how much of the

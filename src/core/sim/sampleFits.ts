@@ -56,7 +56,7 @@ function axisCards(a: FitsAxis): FitsCardInput[] {
       return [['CTYPE1', 'WAVE'], ['CUNIT1', 'Angstrom'], ['CRPIX1', a.crpix], ['CRVAL1', a.crvalA], ['CD1_1', a.cdA]];
     case 'log':
       // Greisen et al. 2006 (Paper III) -LOG: lambda = CRVAL exp(CDELT (p - CRPIX) / CRVAL);
-      // a grid uniform in log10 needs CDELT = CRVAL ln(10) dlog10 (reference sheet sec. 8).
+      // a grid uniform in log10 needs CDELT = CRVAL ln(10) dlog10 (docs/reference.md sec. 8).
       return [['CTYPE1', 'WAVE-LOG'], ['CUNIT1', 'Angstrom'], ['CRPIX1', 1], ['CRVAL1', a.startA], ['CDELT1', a.startA * Math.LN10 * a.dLog10]];
     case 'dcflag':
       // Legacy convention (not FITS standard): CRVAL1/CDELT1 in log10(lambda) when DC-FLAG = 1.

@@ -38,7 +38,7 @@ export function drawRedshift(cls: SimClass, u: number): number {
     case 'galaxy-passive':
       return 0.02 + 0.88 * u;
     case 'star': {
-      // Relativistic Doppler, 1 + z = sqrt((1 + b) / (1 - b)) (reference sheet sec. 3); v uniform in +-300 km/s.
+      // Relativistic Doppler, 1 + z = sqrt((1 + b) / (1 - b)) (docs/reference.md sec. 3); v uniform in +-300 km/s.
       const b = ((2 * u - 1) * 300) / 299792.458;
       return Math.sqrt((1 + b) / (1 - b)) - 1;
     }

@@ -12,7 +12,7 @@ export interface SkyLine {
 }
 
 /**
- * Named sky lines (reference sheet sec. 7; values from memory there):
+ * Named sky lines (docs/reference.md sec. 7; values from memory there):
  * [O I] 5578.89, Na D 5891.58/5897.55, [O I] 6302.04/6365.54 (vacuum).
  */
 const NAMED: SkyLine[] = [
@@ -45,7 +45,7 @@ function ohLikeForest(): SkyLine[] {
 
 export const SKY_LINES: readonly SkyLine[] = [...NAMED, ...ohLikeForest()].sort((a, b) => a.vacA - b.vacA);
 
-/** Telluric absorption bands (vacuum A; reference sheet sec. 7, from memory) and a typical residual depth. */
+/** Telluric absorption bands (vacuum A; docs/reference.md sec. 7, from memory) and a typical residual depth. */
 export const TELLURIC_BANDS: readonly { label: string; fromA: number; toA: number; depth: number }[] = [
   { label: 'O2 B', fromA: 6862, toA: 6892, depth: 0.35 },
   { label: 'H2O', fromA: 7162, toA: 7342, depth: 0.15 },

@@ -10,7 +10,7 @@ import { restGrid, type ClassModel, type ModelContext, type TruthLine } from './
 
 export type StarType = 'A' | 'G' | 'M';
 
-/** Balmer series, vacuum A: H-alpha..H-epsilon from the reference sheet sec. 1; higher n from the Rydberg formula. */
+/** Balmer series, vacuum A: H-alpha..H-epsilon from docs/reference.md sec. 1; higher n from the Rydberg formula. */
 function balmerA(nUpper: number): number {
   const known: Record<number, number> = { 3: 6564.61, 4: 4862.68, 5: 4341.68, 6: 4102.89, 7: 3971.2 };
   if (known[nUpper]) return known[nUpper];

@@ -13,7 +13,7 @@ for (const c of [CASE_A, CASE_C]) {
         expect(Math.abs(ageGyr(z, c.params) / closed - 1)).toBeLessThan(1e-9);
       }
     });
-    it("matches the reference sheet's ages (astropy [C]) to the table's last digit", () => {
+    it("matches the ages of docs/reference.md sec. 4 (astropy [C]) to the table's last digit", () => {
       for (const [z, age] of c.ages) {
         expect(Math.abs(flatMatterLambdaAgeGyr(z, c.params) - age)).toBeLessThanOrEqual(tolerance(age, 1e-5, 4));
       }

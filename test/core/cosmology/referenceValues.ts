@@ -1,5 +1,5 @@
 /**
- * Check values copied from the project's reference sheet (sec. 4), where they
+ * Check values copied from docs/reference.md (sec. 4), where they
  * are tagged [C]: computed with astropy 5.2.1 / scipy 1.10.1 quadrature and
  * printed to the digits kept here. Tables in order of the columns:
  * z, lookback Gyr, D_C Mpc, D_L Mpc, D_A Mpc, distance modulus mag, kpc/arcsec.
@@ -50,7 +50,7 @@ export const CASE_C: ReferenceCase = {
  * Om = 0.286, constant radiation Or = 4.165e-5 / h^2, OL = 1 - Om - Or; values
  * at z = 3 computed with astropy 5.2.1 [C] (the web calculator prints the same
  * to its digits [M]). Pure constant radiation, so a constant Omega_r model
- * reproduces it exactly; the reference sheet's Planck18 table (case B) is not
+ * reproduces it exactly; the Planck18 table of docs/reference.md sec. 4 (case B) is not
  * used because its massive neutrinos make Omega_r vary with z.
  */
 const H_WRIGHT = 0.696;
@@ -65,7 +65,7 @@ export const WRIGHT_RADIATION = {
   ageAtZGyr: 2.1714,
 };
 
-/** Hubble time and distance for H0 = 70 (reference sheet sec. 4, case A) [C]. */
+/** Hubble time and distance for H0 = 70 (docs/reference.md sec. 4, case A) [C]. */
 export const HUBBLE_70 = { timeGyr: 13.96846, distanceMpc: 4282.7494 };
 
 /**

@@ -4,7 +4,7 @@ import { hubbleTimeGyr } from '../../../src/core/cosmology/constants';
 import type { CosmologyParams } from '../../../src/core/types';
 import { CASE_A, CASE_C, WRIGHT_RADIATION, tolerance } from './referenceValues';
 
-const REL_AGE = 1e-5; // reference sheet's suggested tolerance for ages
+const REL_AGE = 1e-5; // suggested tolerance for ages at the top of docs/reference.md
 
 /** Plain composite midpoint rule: the slow obvious integral. */
 function midpoint(f: (x: number) => number, a: number, b: number, n: number): number {
@@ -15,7 +15,7 @@ function midpoint(f: (x: number) => number, a: number, b: number, n: number): nu
 }
 
 for (const c of [CASE_A, CASE_C]) {
-  describe(`times against the reference sheet, ${c.label}`, () => {
+  describe(`times against docs/reference.md sec. 4, ${c.label}`, () => {
     for (const [z, age] of c.ages) {
       it(`age at z = ${z} matches astropy [C] to 1e-5 relative or the table's last digit`, () => {
         expect(Math.abs(ageGyr(z, c.params) - age)).toBeLessThanOrEqual(tolerance(age, REL_AGE, 4));

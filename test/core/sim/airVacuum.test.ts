@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import { vacuumToAir, airToVacuum } from '../../../src/core/sim/airVacuum';
 
 describe('vacuumToAir / airToVacuum', () => {
-  // Pairs: reference sheet sec. 2 (Morton 2000 formula, computed).
+  // Pairs: docs/reference.md sec. 2 (Morton 2000 formula, computed).
   it.each([
     [6562.8, 6564.613],
     [5006.84, 5008.237],
@@ -13,7 +13,7 @@ describe('vacuumToAir / airToVacuum', () => {
     expect(Math.abs(vacuumToAir(vac) - air)).toBeLessThan(0.002);
   });
 
-  it('leaves wavelengths below 2000 A alone (vacuum by convention, reference sheet sec. 2)', () => {
+  it('leaves wavelengths below 2000 A alone (vacuum by convention, docs/reference.md sec. 2)', () => {
     expect(vacuumToAir(1549.06)).toBe(1549.06);
     expect(airToVacuum(1215.67)).toBe(1215.67);
   });

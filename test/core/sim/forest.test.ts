@@ -4,7 +4,7 @@ import { createRng } from '../../../src/core/sim/prng';
 import { makeGrid, DEFAULT_GRID } from '../../../src/core/sim/grid';
 
 describe('tauEff', () => {
-  // Check values: Faucher-Giguere et al. 2008 (ApJ 688, 85) power law, as tabulated in the reference sheet sec. 6.
+  // Check values: Faucher-Giguere et al. 2008 (ApJ 688, 85) power law, as tabulated in docs/reference.md sec. 6.
   it.each([
     [2, 0.1335, 0.875],
     [2.5, 0.2444, 0.7832],
@@ -45,7 +45,7 @@ function meanForest(zQso: number, zAbs: number, dz: number, nReal: number, seed:
 describe('forestTransmission', () => {
   // Mean over 300 realisations and ~60 pixels each; per-pixel scatter of F is ~0.3
   // with ~3-pixel correlations, so the standard error is ~0.004: tolerance 0.015.
-  // Target: exp(-tau_eff), Faucher-Giguere et al. 2008 via reference sheet sec. 6
+  // Target: exp(-tau_eff), Faucher-Giguere et al. 2008 via docs/reference.md sec. 6
   // (the mean of exp(-tau) over zAbs +- 0.03 differs from F(zAbs) by < 0.001).
   it.each([
     [2.8, 2.5, 0.7832],

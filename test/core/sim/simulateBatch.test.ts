@@ -24,7 +24,7 @@ describe('simulateBatch', () => {
       if (p.class === 'qso') expect(p.z).toBeLessThanOrEqual(5.5);
       if (p.class === 'galaxy-sf') expect(p.z).toBeLessThanOrEqual(1.2);
       if (p.class === 'galaxy-passive') expect(p.z).toBeLessThanOrEqual(0.9);
-      // |v| < 300 km/s -> |z| < 1.0007e-3 (relativistic Doppler, reference sheet sec. 3).
+      // |v| < 300 km/s -> |z| < 1.0007e-3 (relativistic Doppler, docs/reference.md sec. 3).
       if (p.class === 'star') expect(Math.abs(p.z)).toBeLessThan(1.0007e-3);
     }
     expect([...classes].sort()).toEqual(['galaxy-passive', 'galaxy-sf', 'qso', 'star']);

@@ -41,7 +41,7 @@ describe('automaticRow(result, cosmo)', () => {
     expect(row.ang_diam_dist_mpc).toBe(d.angularDiameterDistanceMpc.toFixed(2));
     expect(row.kpc_per_arcsec).toBe(d.kpcPerArcsec.toFixed(4));
   });
-  it('matches reference case A (astropy [C], reference sheet sec. 4) at z = 1: D_L 6607.66 Mpc, age 5.7516 Gyr', () => {
+  it('matches reference case A (astropy [C], docs/reference.md sec. 4) at z = 1: D_L 6607.66 Mpc, age 5.7516 Gyr', () => {
     const row = automaticRow(okResult({ z: 1, class: 'galaxy' }), COSMO);
     expect(row.lum_dist_mpc).toBe('6607.66');
     expect(row.age_gyr).toBe('5.7516');

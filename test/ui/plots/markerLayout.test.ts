@@ -19,7 +19,7 @@ const M: LineMarker[] = [
 
 describe('shiftedMarkersInRange(markers, z, fromA, toA)', () => {
   it('shifts by (1 + z) and keeps only lines in range', () => {
-    // Lyα at z = 3 lands at 4862.68 A (reference sheet sec. 3 worked example)
+    // Lyα at z = 3 lands at 4862.68 A (docs/reference.md sec. 3 worked example)
     const got = shiftedMarkersInRange(M, 3, 3600, 9000);
     expect(got.map((m) => m.id)).toEqual(['LyA', 'CIV']);
     expect(got[0].observedA).toBeCloseTo(4862.68, 2);

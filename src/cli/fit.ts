@@ -12,9 +12,8 @@ import { FIT_USAGE, parseFitOptions } from './options';
 import { expandInputs } from './walk';
 import { listFingerprint, selectShard } from './shard';
 import { JobFailure, ThreadPool } from './threadPool';
-import { failedResult } from '../core/pipeline';
+import { failedResult } from '../core/failedResult';
 import { automaticRow, catalogueTableWriter } from '../core/table';
-import { ENGINE_VERSION, TEMPLATE_SET_ID } from '../core/engine';
 import { SOFTWARE_NAME, SOFTWARE_VERSION } from '../core/version';
 import type { FitJob, FitJobResult } from './fitThread';
 
@@ -25,6 +24,8 @@ async function main(argv: string[]): Promise<number> {
     return 0;
   }
   const { out: outPath, format, jobs, timeLimitS, cosmology, shard, headerBlock, quiet } = options;
+  // The engine (for its version and template set id) loads only for a real run: --help and option errors answer at once.
+  const { ENGINE_VERSION, TEMPLATE_SET_ID } = await import('../core/engine');
   const all = expandInputs(options.inputs);
   const files = selectShard(all, shard);
 

@@ -157,6 +157,8 @@ export interface FitResult {
   engineVersion: string;
   /** Summary of the input, for tables. */
   input: { nPix: number; lambdaMinA: number; lambdaMaxA: number; medianSnr: number; meta: SpectrumMeta; format: string };
+  /** Input pixels masked before the fit, by reason (absent in results saved before it existed). */
+  masked?: { reason: string; pixels: number }[];
 }
 
 export type ReviewState = 'unreviewed' | 'accepted' | 'changed' | 'rejected';

@@ -6,22 +6,18 @@
  *   from object to object; no template removes that. After mean-shift
  *   corrections the intrinsic scatter is 56 km/s for [O III] 5008, 205 for
  *   Mg II, 233 for C III], 400 for broad H-beta, 415 for C IV (Shen et al.
- *   2016, ApJ 831, 7; reference sheet sec. 6). The floor is the smallest of
+ *   2016, ApJ 831, 7; docs/reference.md sec. 6). The floor is the smallest of
  *   these among the lines inside the data at the solution ([O III] only when
  *   the narrow-line vector is in use); Ly-alpha alone takes the C IV value.
- * - Star-forming galaxies: 6 km/s, set on simulations (scripts/evaluate.ts):
- *   the fixed line ratios and widths of the template leave a scatter of that
- *   size that the curvature does not know about.
- * - Passive galaxies and stars: none (their curvature errors already cover
- *   the scatter on simulations: median |dz|/z_err 0.5-0.8).
+ * - Galaxies and stars: none here (their curvature error is scaled instead).
  * The resampling onto the log grid needs no factor of its own on the
  * simulations (already on the grid); for coarser-pixel inputs the reduced
  * chi-square scaling partly covers it. Not verified on real spectra.
  */
 import { C_KMS } from './logGrid';
-import type { RefinedCandidate } from './candidates';
+import type { ScoredCandidate } from './candidates';
 
-/** Shen et al. 2016 intrinsic line-shift scatter, km/s, with rest wavelengths (reference sheet sec. 1). */
+/** Shen et al. 2016 intrinsic line-shift scatter, km/s, with rest wavelengths (docs/reference.md sec. 1). */
 export const QSO_LINE_FLOORS: readonly { id: string; restA: number; kms: number }[] = [
   { id: 'OIII_5008', restA: 5008.24, kms: 56 },
   { id: 'MgII', restA: 2798.75, kms: 205 },
@@ -31,19 +27,11 @@ export const QSO_LINE_FLOORS: readonly { id: string; restA: number; kms: number 
   { id: 'LyA', restA: 1215.67, kms: 415 },
 ];
 
-export const SF_GALAXY_FLOOR_KMS = 6;
-
-/** Floor in km/s for a solution whose data span lambdaMinA..lambdaMaxA (observed, Angstrom). */
-export function floorKms(c: RefinedCandidate, lambdaMinA: number, lambdaMaxA: number): number {
-  const fam = c.family;
-  if (fam.id === 'galaxy-sf') return SF_GALAXY_FLOOR_KMS;
-  if (fam.class !== 'qso') return 0;
-  const P = c.fit.x.length - fam.vectors.length;
-  const narrowIdx = fam.vectors.findIndex((v) => v.id === 'narrow');
-  const narrowOn = narrowIdx >= 0 && c.fit.x[P + narrowIdx] > 0;
+/** Floor in km/s for a solution whose data span lambdaMinA..lambdaMaxA (observed, Angstrom): quasars only. */
+export function floorKms(c: ScoredCandidate, lambdaMinA: number, lambdaMaxA: number): number {
+  if (c.family.class !== 'qso') return 0;
   let best = Infinity;
   for (const l of QSO_LINE_FLOORS) {
-    if (l.id === 'OIII_5008' && !narrowOn) continue;
     const obs = l.restA * (1 + c.z);
     if (obs > lambdaMinA && obs < lambdaMaxA) best = Math.min(best, l.kms);
   }
@@ -51,7 +39,7 @@ export function floorKms(c: RefinedCandidate, lambdaMinA: number, lambdaMaxA: nu
 }
 
 /** The candidate with its floor added in quadrature to zErr (dz = (1 + z) v / c). */
-export function withFloor(c: RefinedCandidate, lambdaMinA: number, lambdaMaxA: number): RefinedCandidate {
+export function withFloor(c: ScoredCandidate, lambdaMinA: number, lambdaMaxA: number): ScoredCandidate {
   const f = ((1 + c.z) * floorKms(c, lambdaMinA, lambdaMaxA)) / C_KMS;
   return f > 0 ? { ...c, zErr: Math.hypot(c.zErr, f) } : c;
 }

@@ -61,6 +61,23 @@ export const LINES: readonly CatalogueLine[] = [
   { id: 'SII_6733', label: '[S II]', restA: 6732.67, kind: 'emission', roles: ['narrow'], strength: 0.11, source: 'SDSS 6732.67' },
 ];
 
+/**
+ * Components of blends the catalogue lists as one line, for templates that
+ * need them apart (the [O II] doublet ratio varies with density); not shown as
+ * markers or measured on their own.
+ */
+export const LINE_COMPONENTS: readonly { id: string; blendOf: string; restA: number; source: string }[] = [
+  { id: 'OII_3727', blendOf: 'OII', restA: 3727.09, source: 'SDSS 3727.092' },
+  { id: 'OII_3730', blendOf: 'OII', restA: 3729.88, source: 'SDSS 3729.875' },
+];
+
+/** Rest wavelength of a catalogue line or blend component by id, Angstrom (throws on an unknown id: a typo in code). */
+export function restWavelengthA(id: string): number {
+  const hit = LINES.find((l) => l.id === id) ?? LINE_COMPONENTS.find((l) => l.id === id);
+  if (!hit) throw new Error(`line ${id} is not in the catalogue`);
+  return hit.restA;
+}
+
 /** Lyman limit, Angstrom (from memory: 911.75). Flux blueward is absorbed at high z. */
 export const LYMAN_LIMIT_A = 911.75;
 

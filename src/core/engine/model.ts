@@ -1,0 +1,82 @@
+/**
+ * A family's model at one whole-pixel shift, by direct sums over the data:
+ * every vector plus the continuum polynomial, least squares with the
+ * non-negative amplitudes kept >= 0 (the same solve as the scan,
+ * kernels/shiftSolve.ts). Used for the few candidates, never per shift.
+ */
+import { makeShiftSolver, solveShift } from './kernels/shiftSolve';
+import type { WeightedData } from './scanData';
+
+export interface ModelFit {
+  shift: number;
+  chi2: number;
+  /** Template amplitudes (0 for vectors not used). */
+  amplitudes: Float64Array;
+  /** Polynomial coefficients on data.q. */
+  polyCoeffs: Float64Array;
+  /** Free parameters used: template amplitudes in play plus polynomial terms. */
+  nParams: number;
+}
+
+/** vectors: arrays whose element 0 sits at absolute pixel kStart (on the data's grid); shift in the data's pixels. */
+export function evaluateAt(data: WeightedData, vectors: Float64Array[], kStart: number, nonNegative: readonly boolean[], shift: number): ModelFit {
+  const K = vectors.length;
+  const P = data.q.length;
+  const solver = makeShiftSolver(K, P);
+  const { tt, tf, tq } = solver;
+  const nT = vectors[0].length;
+  const row = new Float64Array(K);
+  const n = data.w.length;
+  // pixels where the vectors are defined: t = d0 + i - shift - kStart in [0, nT)
+  const iFrom = Math.max(0, kStart + shift - data.d0);
+  const iTo = Math.min(n, kStart + shift - data.d0 + nT);
+  for (let i = iFrom; i < iTo; i++) {
+    const w = data.w[i];
+    if (!(w > 0)) continue;
+    const t = data.d0 + i - shift - kStart;
+    for (let j = 0; j < K; j++) row[j] = vectors[j][t];
+    for (let j = 0; j < K; j++) {
+      const wr = w * row[j];
+      if (wr === 0) continue;
+      for (let l = 0; l <= j; l++) tt[j * K + l] += wr * row[l];
+      tf[j] += wr * data.flux[i];
+      for (let a = 0; a < P; a++) tq[j * P + a] += wr * data.q[a][i];
+    }
+  }
+  const chi2 = solveShift(solver, data.g, data.F, nonNegative);
+  const amplitudes = Float64Array.from(solver.a);
+  // polynomial coefficients: the part of g the templates do not explain (q orthonormal)
+  const polyCoeffs = Float64Array.from(data.g, (ga, a) => {
+    let s = ga;
+    for (let j = 0; j < K; j++) s -= amplitudes[j] * tq[j * P + a];
+    return s;
+  });
+  return { shift, chi2, amplitudes, polyCoeffs, nParams: solver.used + P };
+}
+
+/** The model on the data's pixels (NaN where no template covers). */
+export function modelOnData(data: WeightedData, vectors: Float64Array[], kStart: number, fit: ModelFit): Float64Array {
+  const n = data.w.length;
+  const out = new Float64Array(n);
+  const nT = vectors[0].length;
+  for (let i = 0; i < n; i++) {
+    const t = data.d0 + i - fit.shift - kStart;
+    let m = 0;
+    if (t >= 0 && t < nT) for (let j = 0; j < vectors.length; j++) m += fit.amplitudes[j] * vectors[j][t];
+    for (let a = 0; a < data.q.length; a++) m += fit.polyCoeffs[a] * data.q[a][i];
+    out[i] = m;
+  }
+  return out;
+}
+
+/** One vector: sum_j amplitudes_j vectors_j (the fit's template part). */
+export function combination(vectors: Float64Array[], amplitudes: Float64Array): Float64Array {
+  const out = new Float64Array(vectors[0].length);
+  for (let j = 0; j < vectors.length; j++) {
+    const a = amplitudes[j];
+    if (a === 0) continue;
+    const v = vectors[j];
+    for (let t = 0; t < out.length; t++) out[t] += a * v[t];
+  }
+  return out;
+}

@@ -1,0 +1,91 @@
+/**
+ * FitWorkspace: everything a thread reuses from fit to fit (FFT plans, the
+ * template side of the scan's correlations, scratch buffers), owned by the
+ * caller (one per browser worker or CLI thread, or one per test) and passed
+ * down. Nothing in the engine keeps state of its own.
+ */
+import { CorrelationPlan, type HalfSpectrum } from './fftCorrelate';
+import type { DataSpectra, ScanData, TemplateSpectra } from './kernels/correlationSums';
+import type { Family } from './family';
+
+/** Template transforms kept (each family x window x FFT size); the least recently used goes first. */
+const TEMPLATE_CACHE_MAX = 24;
+
+export class FitWorkspace {
+  private readonly plans = new Map<number, CorrelationPlan>();
+  private readonly templates = new Map<string, TemplateSpectra>();
+  private readonly scratchBufs = new Map<string, Float64Array>();
+  /** Data transforms of the spectrum being fitted (keyed by its ScanData object; dropped with it). */
+  private dataOwner: ScanData | null = null;
+  private readonly dataByL = new Map<number, DataSpectra>();
+  /** Binned copies of family vectors, by family object and binning. */
+  private readonly binned = new WeakMap<Family, Map<string, { kStart: number; vectors: Float64Array[] }>>();
+
+  plan(L: number): CorrelationPlan {
+    let p = this.plans.get(L);
+    if (!p) {
+      p = new CorrelationPlan(L);
+      this.plans.set(L, p);
+    }
+    return p;
+  }
+
+  templateSpectra(key: string, build: () => TemplateSpectra): TemplateSpectra {
+    let t = this.templates.get(key);
+    if (t) {
+      this.templates.delete(key);
+      this.templates.set(key, t);
+      return t;
+    }
+    t = build();
+    this.templates.set(key, t);
+    if (this.templates.size > TEMPLATE_CACHE_MAX) this.templates.delete(this.templates.keys().next().value as string);
+    return t;
+  }
+
+  dataSpectra(data: ScanData, L: number, build: () => DataSpectra): DataSpectra {
+    if (this.dataOwner !== data) {
+      this.dataOwner = data;
+      this.dataByL.clear();
+    }
+    let d = this.dataByL.get(L);
+    if (!d) {
+      d = build();
+      this.dataByL.set(L, d);
+    }
+    return d;
+  }
+
+  /** Forget the last spectrum's data transforms (call when a fit ends). */
+  releaseData(): void {
+    this.dataOwner = null;
+    this.dataByL.clear();
+  }
+
+  scratch(length: number, slot: number): Float64Array {
+    const key = `${length}|${slot}`;
+    let b = this.scratchBufs.get(key);
+    if (!b) {
+      b = new Float64Array(length);
+      this.scratchBufs.set(key, b);
+    }
+    return b;
+  }
+
+  binnedVectors(f: Family, which: 'scan' | 'full', factor: number, build: () => { kStart: number; vectors: Float64Array[] }) {
+    let m = this.binned.get(f);
+    if (!m) {
+      m = new Map();
+      this.binned.set(f, m);
+    }
+    const key = `${which}|${factor}`;
+    let v = m.get(key);
+    if (!v) {
+      v = build();
+      m.set(key, v);
+    }
+    return v;
+  }
+}
+
+export type { HalfSpectrum };

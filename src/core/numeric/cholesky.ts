@@ -1,0 +1,59 @@
+/**
+ * Small dense symmetric positive-definite solves (Cholesky, Golub & Van Loan
+ * 2013, sec. 4.2), the one solver the engine uses for normal equations.
+ * Works in place on caller-owned buffers so hot loops allocate nothing.
+ */
+
+/** Relative pivot below which a variable is degenerate (dropped by the caller). */
+export const PIVOT_TOL = 1e-12;
+
+/**
+ * Solve M x = b for the variables listed in idx (ascending; the others fixed at 0).
+ * M: n x n row-major symmetric; L: scratch of n*n; x: out (length n, zeroed
+ * outside idx). Returns x . b restricted to idx (the chi-square explained), or
+ * NaN when M restricted to idx is not positive definite.
+ */
+export function choleskySolveSubset(M: Float64Array, b: Float64Array, n: number, idx: ArrayLike<number>, m: number, x: Float64Array, L: Float64Array): number {
+  for (let p = 0; p < m; p++) {
+    const ip = idx[p];
+    for (let q = 0; q <= p; q++) {
+      let s = M[ip * n + idx[q]];
+      for (let k = 0; k < q; k++) s -= L[p * n + k] * L[q * n + k];
+      if (p === q) {
+        if (!(s > PIVOT_TOL * Math.abs(M[ip * n + ip]))) return NaN;
+        L[p * n + p] = Math.sqrt(s);
+      } else L[p * n + q] = s / L[q * n + q];
+    }
+  }
+  // forward: L y = b ; back: L^T x = y (y stored in x's first m slots, then scattered)
+  const y = x;
+  for (let p = 0; p < m; p++) {
+    let s = b[idx[p]];
+    for (let k = 0; k < p; k++) s -= L[p * n + k] * y[k];
+    y[p] = s / L[p * n + p];
+  }
+  for (let p = m - 1; p >= 0; p--) {
+    let s = y[p];
+    for (let k = p + 1; k < m; k++) s -= L[k * n + p] * y[k];
+    y[p] = s / L[p * n + p];
+  }
+  // scatter from compact to full positions, highest index first (idx ascending)
+  let explained = 0;
+  for (let p = m - 1; p >= 0; p--) {
+    const v = y[p];
+    const ip = idx[p];
+    explained += v * b[ip];
+    x[ip] = v;
+    // zero the gap between this and the previous listed index
+    const prev = p > 0 ? idx[p - 1] : -1;
+    for (let j = ip - 1; j > prev; j--) x[j] = 0;
+  }
+  for (let j = (m > 0 ? idx[m - 1] : -1) + 1; j < n; j++) x[j] = 0;
+  return explained;
+}
+
+/** Solve the full system (every variable free). */
+export function choleskySolve(M: Float64Array, b: Float64Array, n: number, x: Float64Array, L: Float64Array, idx: Int32Array): number {
+  for (let i = 0; i < n; i++) idx[i] = i;
+  return choleskySolveSubset(M, b, n, idx, n, x, L);
+}

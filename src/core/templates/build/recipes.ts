@@ -1,0 +1,327 @@
+/**
+ * How each template family is built from the published spectra in
+ * src/core/templates/published/ (citations in its README.md and INDEX.csv).
+ * Pure functions of the tables, so a test can rebuild a family with one
+ * source spectrum held out and fit spectra made from that spectrum.
+ */
+import type { SpectrumClass } from '../../types';
+import { C_KMS, KMS_PER_PIXEL, DLOG10 } from '../../engine/logGrid';
+import { restWavelengthA } from '../../lines/catalogue';
+import { eigenspectra } from './eigenspectra';
+import type { TemplateTable } from './readTemplateCsv';
+import { broadenLog, interpolateGaps, toLogGrid } from './toLogGrid';
+
+export interface BasisVectorData {
+  id: string;
+  values: Float64Array;
+  /** Amplitude kept >= 0 in fits (emission lines); eigenspectra are signed. */
+  nonNegative: boolean;
+}
+
+export interface FamilyBasis {
+  id: string;
+  class: SpectrumClass;
+  zMin: number;
+  zMax: number;
+  /** Absolute log-grid pixel of values[0] of every vector. */
+  kStart: number;
+  vectors: BasisVectorData[];
+  /** The fast scan's vectors as combinations of the full ones: weights by vector id. */
+  scan: { id: string; weights: Record<string, number> }[];
+  /** Provenance for the README and exports. */
+  sources: string[];
+  /** Fraction of the library's sum of squares the eigenspectra hold (1 when not eigenspectra). */
+  heldFraction: number;
+}
+
+const kOf = (lambdaA: number) => Math.round(Math.log10(lambdaA) / DLOG10);
+
+/** Stars: radial velocities within +-1000 km/s (docs/reference.md sec. 6 gives |v| < ~300-500 km/s; a margin added). */
+export const STAR_VMAX_KMS = 1000;
+/**
+ * Galaxies start just beyond the stellar range: at |cz| < 1000 km/s an
+ * absorption spectrum cannot be told from a star by z, and fibre surveys of
+ * compact candidates rarely target such nearby galaxies (common practice,
+ * stated as a prior).
+ */
+export const GALAXY_Z_MIN = STAR_VMAX_KMS / C_KMS;
+
+// ------------------------------------------------------------------ stars
+
+/** Stellar eigenspectra kept: Pickles spectra are R ~ 500, coarser than survey data, so keep many (14 hold > 99.9 % of the library's sum of squares). */
+export const STAR_EIGEN = 14;
+/** Of those, the fast scan uses the first few; every candidate is then scored with all. */
+export const STAR_SCAN_EIGEN = 6;
+
+export function buildStarFamily(stars: TemplateTable[]): FamilyBasis {
+  const kLo = kOf(3000);
+  const kHi = kOf(11000);
+  const spectra = stars.map((t) => normaliseMean(extendEnds(toLogGrid(t.wavelengthA, t.flux, kLo, kHi))));
+  const eig = eigenspectra(spectra, STAR_EIGEN);
+  return {
+    id: 'star',
+    class: 'star',
+    zMin: -STAR_VMAX_KMS / C_KMS,
+    zMax: STAR_VMAX_KMS / C_KMS,
+    kStart: kLo,
+    vectors: eig.vectors.map((v, i) => ({ id: `star eigen ${i + 1}`, values: v, nonNegative: false })),
+    scan: eig.vectors.slice(0, STAR_SCAN_EIGEN).map((_, i) => ({ id: `star eigen ${i + 1}`, weights: { [`star eigen ${i + 1}`]: 1 } })),
+    sources: stars.map((t) => t.name),
+    heldFraction: eig.fractions.reduce((a, b) => a + b, 0),
+  };
+}
+
+// ------------------------------------------------------------------ galaxies
+
+/**
+ * Kinney-Calzetti templates carry their own velocity zero points: mean offsets
+ * of their features from vacuum laboratory wavelengths, Angstrom near 5000 A
+ * (published/README.md, "Caveats"). Removed before use.
+ */
+export const KC_OFFSETS_A: Readonly<Record<string, number>> = {
+  kc96_elliptical: 0.6, kc96_bulge: -1.6, kc96_s0: 3.5, kc96_sa: -1.0, kc96_sb: 2.6, kc96_sc: 0.4,
+  kc96_starb1: 1.9, kc96_starb2: 0.1, kc96_starb3: -2.9, kc96_starb4: 0.9, kc96_starb5: -0.3, kc96_starb6: 2.0,
+};
+const KC_OFFSET_REF_A = 5000;
+
+/** Kinney-Calzetti templates with nebular emission: their lines are cut out (the emission vectors below carry lines at exact wavelengths). */
+const KC_WITH_EMISSION = new Set(['kc96_sa', 'kc96_sb', 'kc96_sc', 'kc96_starb1', 'kc96_starb2', 'kc96_starb3', 'kc96_starb4', 'kc96_starb5', 'kc96_starb6']);
+/** Nebular lines cut from those templates (vacuum A); +-EMISSION_CUT_A around each (KC resolution ~10 A FWHM). */
+const NEBULAR_A = [1215.67, 3727.09, 3729.88, 3869.86, 3971.2, 4102.89, 4341.68, 4862.68, 4960.3, 5008.24, 5877.25, 6302.05, 6549.86, 6564.61, 6585.27, 6718.29, 6732.67, 9071.1, 9533.2];
+const EMISSION_CUT_A = 15;
+
+/**
+ * BC03 model spectra (about 3 A resolution, from memory) are broadened to a
+ * Gaussian sigma of 150 km/s in all: a typical galaxy velocity dispersion
+ * combined with a fibre spectrograph's resolution (common practice).
+ */
+const BC03_EXTRA_SIGMA_KMS = Math.sqrt(150 ** 2 - 76 ** 2);
+
+/** Continuum eigenspectra kept for galaxies (5 hold > 99.9 % of the library's sum of squares), and those the scan uses. */
+export const GALAXY_EIGEN = 5;
+export const GALAXY_SCAN_EIGEN = 4;
+
+/** Nebular line FWHM, km/s: ~150 km/s intrinsic with a resolution near 2000 (common practice for fibre spectra). */
+const NEBULAR_FWHM_KMS = 250;
+
+export function buildGalaxyFamily(galaxies: TemplateTable[]): FamilyBasis {
+  const kLo = kOf(1250);
+  const kHi = kOf(10500);
+  const filler = galaxies.find((t) => t.name.includes('4.75gyr')) ?? galaxies.find((t) => t.name.startsWith('bc03'));
+  const fillerGrid = filler ? interpolateGaps(toLogGrid(filler.wavelengthA, filler.flux, kLo, kHi)) : null;
+  const spectra = galaxies.map((t) => {
+    let wl = t.wavelengthA;
+    const off = KC_OFFSETS_A[t.name];
+    if (off !== undefined) wl = wl.map((w) => w / (1 + off / KC_OFFSET_REF_A));
+    let v = toLogGrid(wl, t.flux, kLo, kHi);
+    if (KC_WITH_EMISSION.has(t.name)) v = cutLines(v, kLo, NEBULAR_A, EMISSION_CUT_A);
+    if (t.name.startsWith('bc03')) v = broadenLog(v, BC03_EXTRA_SIGMA_KMS / KMS_PER_PIXEL);
+    v = interpolateGaps(v);
+    if (fillerGrid) v = extendWith(v, fillerGrid);
+    return normaliseMean(extendEnds(v), kOf(4000) - kLo, kOf(7000) - kLo);
+  });
+  const eig = eigenspectra(spectra, GALAXY_EIGEN);
+  const n = kHi - kLo + 1;
+  const line = (ids: [string, number][]): Float64Array => emissionLines(n, kLo, ids.map(([id, f]) => [restWavelengthA(id), f]), NEBULAR_FWHM_KMS);
+  // Line ratios inside a group: [O III] 5008/4960 = 2.98 and [N II] 6585/6550 = 3.05
+  // (Storey & Zeippen 2000, MNRAS 312, 813); Balmer decrement of case B,
+  // Ha/Hb = 2.86 (Osterbrock & Ferland 2006, from memory); [S II] and [O I]
+  // typical of H II regions (from memory).
+  const emission: BasisVectorData[] = [
+    { id: '[O II] 3727', values: line([['OII_3727', 1]]), nonNegative: true },
+    { id: '[O II] 3730', values: line([['OII_3730', 1]]), nonNegative: true },
+    { id: 'Balmer', values: line([['Halpha', 2.86], ['Hbeta', 1], ['Hgam', 0.47], ['Hdel', 0.26], ['Heps', 0.16]]), nonNegative: true },
+    { id: '[O III]', values: line([['OIII_5008', 2.98], ['OIII_4960', 1], ['NeIII', 0.3]]), nonNegative: true },
+    { id: '[N II]+[S II]', values: line([['NII_6585', 3.05], ['NII_6550', 1], ['SII_6718', 1.2], ['SII_6733', 0.9], ['OI_6302', 0.2]]), nonNegative: true },
+  ];
+  const eigenIds = eig.vectors.map((_, i) => `galaxy eigen ${i + 1}`);
+  return {
+    id: 'galaxy',
+    class: 'galaxy',
+    zMin: GALAXY_Z_MIN,
+    zMax: 1.6,
+    kStart: kLo,
+    vectors: [...eig.vectors.map((v, i) => ({ id: eigenIds[i], values: v, nonNegative: false })), ...emission],
+    scan: [
+      ...eigenIds.slice(0, GALAXY_SCAN_EIGEN).map((id) => ({ id, weights: { [id]: 1 } })),
+      // [O II] at a ratio of 1.4 (3730/3727 ~ 1.4 at low density, from memory); then the other nebular groups at typical strengths.
+      { id: '[O II]', weights: { '[O II] 3727': 1, '[O II] 3730': 1.4 } },
+      { id: 'nebular', weights: { Balmer: 1, '[O III]': 0.5, '[N II]+[S II]': 0.5 } },
+    ],
+    sources: galaxies.map((t) => t.name),
+    heldFraction: eig.fractions.reduce((a, b) => a + b, 0),
+  };
+}
+
+// ------------------------------------------------------------------ quasars
+
+/**
+ * Broad-line groups of the quasar family, rest windows in Angstrom: each
+ * group's emission above the composite's continuum gets its own amplitude,
+ * since line strengths vary from quasar to quasar while their positions do not.
+ */
+const QSO_GROUPS: { id: string; fromA: number; toA: number }[] = [
+  { id: 'Ly-alpha + N V', fromA: 1160, toA: 1300 },
+  { id: 'Si IV', fromA: 1360, toA: 1440 },
+  { id: 'C IV + He II', fromA: 1470, toA: 1700 },
+  { id: 'C III]', fromA: 1840, toA: 1975 },
+  { id: 'Mg II', fromA: 2680, toA: 2920 },
+  { id: 'H-beta + [O III]', fromA: 4700, toA: 5060 },
+  { id: 'H-alpha', fromA: 6380, toA: 6760 },
+];
+/** Lyman-alpha, Angstrom (catalogue): blueward the forest absorbs. */
+const LYA_A = restWavelengthA('LyA');
+/** Stitch point of the two composites (Vanden Berk below: it reaches 800 A; Selsing above: little host light). */
+const STITCH_A = 2600;
+
+export function buildQsoFamily(vandenBerk: TemplateTable, selsing: TemplateTable): FamilyBasis {
+  const kLo = kOf(800);
+  const kHi = kOf(11000);
+  const n = kHi - kLo + 1;
+  const vdb = toLogGrid(vandenBerk.wavelengthA, vandenBerk.flux, kLo, kHi);
+  const sel = interpolateGaps(toLogGrid(selsing.wavelengthA, selsing.flux, kLo, kHi));
+  const kS = kOf(STITCH_A) - kLo;
+  // scale Selsing to Vanden Berk over 2500-2700 A (ratio of sums)
+  let a = 0;
+  let b = 0;
+  for (let j = kOf(2500) - kLo; j <= kOf(2700) - kLo; j++) {
+    a += vdb[j];
+    b += sel[j];
+  }
+  const mean = new Float64Array(n);
+  for (let j = 0; j < n; j++) mean[j] = j < kS ? vdb[j] : (sel[j] * a) / b;
+  const composite = normaliseMean(extendEnds(interpolateGaps(mean)));
+  const continuum = lowerEnvelope(composite, 150, 50);
+  const lines = composite.map((v, j) => v - continuum[j]);
+  const groups: BasisVectorData[] = QSO_GROUPS.map((g) => ({ id: g.id, values: windowed(lines, kLo, g.fromA, g.toA), nonNegative: false }));
+  const civ = groups[2].values;
+  // A velocity shift of the C IV group to first order: v/c * dL/dln(lambda) (high-ionisation lines
+  // are blueshifted by 0 to > 2000 km/s, Richards et al. 2002, AJ 124, 1).
+  const civShift = new Float64Array(n);
+  for (let j = 1; j < n - 1; j++) civShift[j] = (civ[j + 1] - civ[j - 1]) / 2;
+  const forest = composite.map((v, j) => (Math.pow(10, (kLo + j) * DLOG10) < LYA_A ? v : 0));
+  const groupIds = QSO_GROUPS.map((g) => g.id);
+  return {
+    id: 'qso',
+    class: 'qso',
+    zMin: 0,
+    zMax: 6.5,
+    kStart: kLo,
+    vectors: [
+      { id: 'composite', values: composite, nonNegative: false },
+      { id: 'forest', values: forest, nonNegative: false },
+      ...groups,
+      { id: 'C IV shift', values: civShift, nonNegative: false },
+    ],
+    scan: [
+      { id: 'composite', weights: { composite: 1 } },
+      { id: 'forest', weights: { forest: 1 } },
+      { id: 'broad lines', weights: Object.fromEntries(groupIds.map((id) => [id, 1])) },
+    ],
+    sources: [vandenBerk.name, selsing.name],
+    heldFraction: 1,
+  };
+}
+
+// ------------------------------------------------------------------ helpers
+
+/** Fill NaN ends with the nearest finite value (tables that stop short of the grid). */
+function extendEnds(v: Float64Array): Float64Array {
+  const out = Float64Array.from(v);
+  let a = 0;
+  while (a < out.length && !Number.isFinite(out[a])) a++;
+  let b = out.length - 1;
+  while (b >= 0 && !Number.isFinite(out[b])) b--;
+  if (a > b) throw new Error('template has no finite value on the grid');
+  for (let j = 0; j < a; j++) out[j] = out[a];
+  for (let j = b + 1; j < out.length; j++) out[j] = out[b];
+  return out;
+}
+
+/** Where v is NaN beyond its last finite pixel, continue with `shape` scaled to v's mean over the last 200 finite pixels. */
+function extendWith(v: Float64Array, shape: Float64Array): Float64Array {
+  let b = v.length - 1;
+  while (b >= 0 && !Number.isFinite(v[b])) b--;
+  if (b === v.length - 1 || b < 200) return v;
+  let sv = 0;
+  let ss = 0;
+  for (let j = b - 199; j <= b; j++) {
+    sv += v[j];
+    ss += shape[j];
+  }
+  const out = Float64Array.from(v);
+  for (let j = b + 1; j < v.length; j++) out[j] = (shape[j] * sv) / ss;
+  return out;
+}
+
+/** Divide by the mean over [from, to] (default: all). */
+function normaliseMean(v: Float64Array, from = 0, to = v.length - 1): Float64Array {
+  let s = 0;
+  for (let j = from; j <= to; j++) s += v[j];
+  const m = s / (to - from + 1);
+  return v.map((x) => x / m);
+}
+
+/** Set NaN within +-halfA of each line (then interpolated over by the caller). */
+function cutLines(v: Float64Array, kLo: number, linesA: number[], halfA: number): Float64Array {
+  const out = Float64Array.from(v);
+  for (const c of linesA) {
+    const a = kOf(c - halfA) - kLo;
+    const b = kOf(c + halfA) - kLo;
+    for (let j = Math.max(0, a); j <= Math.min(out.length - 1, b); j++) out[j] = NaN;
+  }
+  return out;
+}
+
+/** Smooth lower envelope: running 25th percentile over +-half pixels, then a running mean over +-smooth. */
+function lowerEnvelope(v: Float64Array, half: number, smooth: number): Float64Array {
+  const n = v.length;
+  const pct = new Float64Array(n);
+  const buf: number[] = [];
+  for (let j = 0; j < n; j++) {
+    buf.length = 0;
+    for (let i = Math.max(0, j - half); i <= Math.min(n - 1, j + half); i++) buf.push(v[i]);
+    buf.sort((x, y) => x - y);
+    pct[j] = buf[Math.floor(0.25 * (buf.length - 1))];
+  }
+  const out = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    let s = 0;
+    let c = 0;
+    for (let i = Math.max(0, j - smooth); i <= Math.min(n - 1, j + smooth); i++) {
+      s += pct[i];
+      c++;
+    }
+    out[j] = s / c;
+  }
+  return out;
+}
+
+/** v inside [fromA, toA], with 10-pixel cosine tapers at both ends so the window adds no edge of its own. */
+function windowed(v: Float64Array, kLo: number, fromA: number, toA: number): Float64Array {
+  const a = kOf(fromA) - kLo;
+  const b = kOf(toA) - kLo;
+  const taper = 10;
+  const out = new Float64Array(v.length);
+  for (let j = Math.max(0, a); j <= Math.min(v.length - 1, b); j++) {
+    const d = Math.min(j - a, b - j);
+    const w = d >= taper ? 1 : 0.5 - 0.5 * Math.cos((Math.PI * d) / taper);
+    out[j] = v[j] * w;
+  }
+  return out;
+}
+
+/** Gaussian emission lines of one FWHM (km/s), unit peak for the strongest, on the grid. */
+function emissionLines(n: number, kLo: number, lines: [number, number][], fwhmKms: number): Float64Array {
+  const out = new Float64Array(n);
+  const sigmaPix = fwhmKms / (2 * Math.sqrt(2 * Math.LN2)) / KMS_PER_PIXEL;
+  for (const [restA, flux] of lines) {
+    const kc = Math.log10(restA) / DLOG10 - kLo;
+    for (let j = Math.max(0, Math.floor(kc - 6 * sigmaPix)); j <= Math.min(n - 1, Math.ceil(kc + 6 * sigmaPix)); j++) {
+      out[j] += flux * Math.exp(-0.5 * ((j - kc) / sigmaPix) ** 2);
+    }
+  }
+  let m = 0;
+  for (const x of out) m = Math.max(m, x);
+  return out.map((x) => x / m);
+}

@@ -63,6 +63,45 @@ describe('buildExport', () => {
   });
 });
 
+describe('review columns the UI adds: named line and flags', () => {
+  const flagged = {
+    rows: [
+      {
+        key: 'k1',
+        decision: {
+          ...makeDecision('one.fits', { state: 'changed', z: 5338.8 / 1549.48 - 1, howSet: 'line', lineId: { id: 'CIV', observedA: 5338.8 } }),
+          flags: ['broad-absorption', 'blend'],
+        } as ReturnType<typeof makeDecision>,
+      },
+      { key: 'k3', decision: makeDecision('three.fits', { state: 'rejected', z: null, zErr: null }) },
+    ],
+    getResult: async (k: string) => results.get(k),
+  };
+
+  it('CSV: line id, observed wavelength and flags beside the review columns; empty where none', async () => {
+    const built = await buildExport(flagged, 'csv', DEFAULT_COSMOLOGY, 'all', '2026-01-02T00:00:00Z');
+    const parsed = parseCatalogueCsv(built.data as string);
+    const cols = parsed.columns;
+    expect(cols.indexOf('line_id')).toBe(cols.indexOf('how_set') + 1);
+    expect(cols.indexOf('review_flags')).toBe(cols.indexOf('note') + 1);
+    expect(parsed.rows[0]).toMatchObject({ how_set: 'line', line_id: 'CIV', line_observed_a: '5338.800', review_flags: 'broad-absorption;blend' });
+    // The final z is the named line's own: observed / rest - 1.
+    expect(Number(parsed.rows[0].final_z)).toBeCloseTo(Number(parsed.rows[0].line_observed_a) / 1549.48 - 1, 6);
+    expect(parsed.rows[1]).toMatchObject({ review_state: 'rejected', line_id: '', line_observed_a: '', review_flags: '' });
+  });
+
+  it('JSON, VOTable and FITS carry the same columns', async () => {
+    const json = (await buildExport(flagged, 'json', DEFAULT_COSMOLOGY)).data as string;
+    expect(json).toContain('broad-absorption;blend');
+    expect(json).toContain('"line_id"');
+    const vot = (await buildExport(flagged, 'votable', DEFAULT_COSMOLOGY)).data as string;
+    expect(vot).toMatch(/<FIELD[^>]*name="review_flags"/);
+    expect(vot).toMatch(/<FIELD[^>]*name="line_observed_a"/);
+    const fits = new TextDecoder().decode((await buildExport(flagged, 'fits', DEFAULT_COSMOLOGY)).data as Uint8Array);
+    expect(fits).toContain("'review_flags");
+  });
+});
+
 describe('ExportPanel', () => {
   it('t opens the panel and Download saves a CSV through a Blob link', async () => {
     const { session, db } = await makeSession(undefined, new ScriptedFitter());

@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { KEY_MAP, actionForKey } from '../../src/ui/keys/keyMap';
 import { PLOT_KEYS } from '../../src/ui/plots/viewActions';
+import { FLAGS, flagByKey } from '../../src/ui/review/flags';
 
 describe('KEY_MAP', () => {
   it('binds no key twice', () => {
@@ -19,4 +20,12 @@ describe('KEY_MAP', () => {
     expect(actionForKey({ key: 'a', ctrlKey: true })).toBeNull();
     expect(actionForKey({ key: 'q' })).toBeNull();
   });
+});
+
+it('every review flag has its own key, bound to the flag action', () => {
+  expect(new Set(FLAGS.map((f) => f.key)).size).toBe(FLAGS.length);
+  for (const f of FLAGS) {
+    expect(actionForKey({ key: f.key })).toBe('flag');
+    expect(flagByKey(f.key)?.id).toBe(f.id);
+  }
 });

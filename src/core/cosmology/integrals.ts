@@ -31,5 +31,22 @@ export function ageIntegral(aFrom: number, aTo: number, p: CosmologyParams): num
     const q = s * s;
     return (2 * q * s) / Math.sqrt(p.omegaR + q * (p.omegaM + q * (p.omegaK + oL * q * q)));
   };
-  return integrate(f, Math.sqrt(aFrom), Math.sqrt(aTo));
+  const sFrom = Math.sqrt(aFrom);
+  const sTo = Math.sqrt(aTo);
+  return integrate(f, sFrom, sTo, undefined, halvingBreaks(sFrom, sTo));
+}
+
+/** Halvings towards `from`: the last panel is 2^-20 (1e-6) of the range, where the age integrand (< s^2) adds < 1e-18. */
+const MAX_HALVINGS = 20;
+
+/**
+ * Break points from + (to - from) 2^-k, k = 1, 2, ...: panels that halve in width
+ * towards the lower limit, so that a change of scale near it (the
+ * radiation-matter transition at s = sqrt(Or / Om), at any Omega_r) falls in a
+ * panel of its own size and is sampled, not stepped over.
+ */
+function halvingBreaks(from: number, to: number): number[] {
+  const out: number[] = [];
+  for (let k = 1; k <= MAX_HALVINGS; k++) out.push(from + (to - from) * 2 ** -k);
+  return out;
 }

@@ -69,13 +69,14 @@ function Shell({ autoDemo, fetchFn }: { autoDemo: boolean; fetchFn?: typeof fetc
     [session],
   );
 
-  const loadDemoSet = useCallback(async () => {
+  // quiet: the page was opened with ?demo again (a reload) and the set is already there; that needs no notice.
+  const loadDemoSet = useCallback(async (quiet = false) => {
     setDemoState('Loading the demo set…');
     try {
       const files = await loadDemo(fetchFn ?? fetch.bind(globalThis), (done, total) => setDemoState(`Loading the demo set… ${done} of ${total}`));
       const { duplicates } = await session.addFilesReport(files);
       setDemoState(null);
-      if (duplicates.length) setNotices((n) => [...n, duplicateNotice(duplicates)]);
+      if (duplicates.length && !quiet) setNotices((n) => [...n, duplicateNotice(duplicates)]);
     } catch (e) {
       setDemoState(`The demo set could not be loaded: ${(e as Error)?.message ?? e}`);
     }
@@ -84,7 +85,7 @@ function Shell({ autoDemo, fetchFn }: { autoDemo: boolean; fetchFn?: typeof fetc
   useEffect(() => {
     if (autoDemo && snap.restored && !demoAsked.current) {
       demoAsked.current = true;
-      void loadDemoSet();
+      void loadDemoSet(true);
     }
   }, [autoDemo, snap.restored, loadDemoSet]);
 

@@ -131,9 +131,13 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
 
     await waitForFitting(page, DEMO_FILES.length);
     const broken = TRUTH.filter((t) => t.layout === 'broken').length;
+    // Files that cannot be read are not counted as work to review.
+    const reviewable = DEMO_FILES.length - broken;
     expect(await page.getByTestId('count-failed').textContent()).toBe(`${broken} failed`); // sample-spectra/truth.csv: 12 broken files
     expect(await page.getByTestId('count-done').textContent()).toBe(`${DEMO_FILES.length - broken} done`);
     await page.getByTestId('review-title').waitFor();
+    // The list opens on spectra to review, the deliberately broken files come last.
+    expect(await page.getByTestId('spectrum-row').first().locator('.c-warn').textContent()).toBe('');
 
     const made: Made[] = [];
     const truthOf = (objectId: string) => {
@@ -147,6 +151,9 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
     expect(await solutionText(page)).toContain('set by: automatic fit');
     await expect.poll(() => page.getByTestId('unreviewed-caution').textContent()).toContain('not reviewed');
     made.push({ objectId: current, state: 'accepted', howSet: 'auto', shownZ: (await page.getByTestId('solution-z').textContent())!, setBy: await setByOf(page) });
+    // A review flag by key (low S/N), stored with the decision and exported.
+    await page.keyboard.press('d');
+    await expect.poll(() => page.getByTestId('flag-low-snr').getAttribute('aria-pressed')).toBe('true');
     await page.keyboard.press('a');
     await page.getByTestId('reviewer-dialog').waitFor();
     await page.keyboard.type(REVIEWER);
@@ -193,17 +200,27 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
     await page.keyboard.press(String(pick + 1));
     await expect.poll(() => solutionText(page), { timeout: 60_000 }).toContain(`set by: line ${label} at`);
     const lineZ = (await page.getByTestId('solution-z').textContent())!;
+    // The z shown is the named line's own: observed centre / rest - 1.
+    const observedA = Number(/ at ([\d.]+) Å/.exec(await setByOf(page))![1]);
+    const restA = LINES.find((l) => l.id === line!.id)!.restA;
+    expect(Math.abs(Number(lineZ) - (observedA / restA - 1))).toBeLessThan(1e-4); // the label rounds the centre to 0.1 Å
     expect(Math.abs(Number(lineZ) - truth.z)).toBeLessThan(0.01); // the simulated redshift (truth.csv), within the width of a broad line
     made.push({ objectId: current, state: 'changed', howSet: 'line', shownZ: lineZ, setBy: await setByOf(page) });
     await page.keyboard.press('a');
     current = await waitForNewTitle(page, current);
 
     // Three decisions in the list, and the counter agrees.
-    await expect.poll(() => page.getByTestId('review-counts').textContent()).toMatch(/^3 of 56 reviewed/);
+    await expect.poll(() => page.getByTestId('review-counts').textContent()).toMatch(new RegExp(`^3 of ${reviewable} reviewed`));
 
-    // 4. Reload: every decision is read back from IndexedDB.
+    // 4. Reload: every decision is read back from IndexedDB, and the same spectrum is open again.
+    await page.keyboard.press('f'); // filter: not yet reviewed
+    await expect.poll(() => page.getByLabel('Filter').inputValue()).toBe('unreviewed');
+    const openBefore = await title(page);
     await page.reload();
-    await expect.poll(() => page.getByTestId('review-counts').textContent(), { timeout: 60_000 }).toMatch(/^3 of 56 reviewed/);
+    await expect.poll(() => page.getByTestId('review-counts').textContent(), { timeout: 60_000 }).toMatch(new RegExp(`^3 of ${reviewable} reviewed`));
+    await expect.poll(() => title(page)).toBe(openBefore);
+    expect(await page.getByLabel('Filter').inputValue()).toBe('unreviewed');
+    await page.getByLabel('Filter').selectOption('all');
     for (const m of made) {
       const row = page.getByTestId('spectrum-row').filter({ has: page.locator('.c-id', { hasText: m.objectId }) });
       await expect.poll(() => row.locator('.c-review').textContent()).toContain(m.state);
@@ -214,6 +231,11 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
       expect(await setByOf(page)).toBe(m.setBy);
     }
     await page.screenshot({ path: artifactPath('review-screen.png') });
+    for (const size of [{ width: 1366, height: 768 }, { width: 1920, height: 1080 }]) {
+      await page.setViewportSize(size);
+      await page.waitForTimeout(300);
+      await page.screenshot({ path: artifactPath(`review-screen-${size.width}x${size.height}.png`) });
+    }
 
     // 5. Export CSV through the export panel (key t) and check it row by row.
     await page.keyboard.press('t');
@@ -225,6 +247,10 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
     expect(table.rows.map((r) => r.file).sort()).toEqual([...DEMO_FILES].sort());
     expect(table.meta.cosmology).toBe(describeCosmology(DEFAULT_COSMOLOGY));
     expect(table.meta.caution).toMatch(/unreviewed.*hypotheses/);
+    expect(table.rows.find((x) => x.object_id === made[0].objectId)!.review_flags).toBe('low-snr');
+    const lineRow = table.rows.find((x) => x.object_id === made[2].objectId)!;
+    expect(lineRow.line_id).toBe(line!.id);
+    expect(Math.abs(Number(lineRow.line_observed_a) - line!.observedA)).toBeLessThan(15); // the fitted centre of the line we typed
     for (const m of made) {
       const r = table.rows.find((x) => x.object_id === m.objectId)!;
       expect(r, m.objectId).toBeDefined();

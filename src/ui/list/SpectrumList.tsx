@@ -135,7 +135,7 @@ export function SpectrumList({ rows, currentKey, onSelect }: SpectrumListProps) 
         <span role="columnheader" className="c-id">id</span>
         <span role="columnheader" className="c-class">class</span>
         <span role="columnheader" className="c-z">z</span>
-        <span role="columnheader" className="c-conf" title="machine grade of the automatic fit">machine</span>
+        <span role="columnheader" className="c-conf" title="machine grade of the automatic fit">auto</span>
         <span role="columnheader" className="c-yours" title="the reviewer's grade">yours</span>
         <span role="columnheader" className="c-review">review</span>
         <span role="columnheader" className="c-snr" title="median S/N per pixel">S/N</span>

@@ -10,6 +10,7 @@ import { useLayoutEffect, useMemo, useRef, type ReactElement } from 'react';
 import { lowerBound } from './decimate';
 import { familyStyle } from './palette';
 import { useElementWidth } from './useElementWidth';
+import { SPEED_OF_LIGHT_KMS } from '../../core/cosmology/constants';
 
 export interface FitQualityCurve {
   family: string;
@@ -37,6 +38,50 @@ export interface FitQualityPlotProps {
   onPickZ?: (z: number) => void;
   /** CSS px. */
   height?: number;
+  /**
+   * Candidate indices the number keys reach, in key order: only these get a
+   * mark, numbered by their key. Default: every candidate, numbered in order.
+   */
+  keyed?: readonly number[];
+}
+
+/** Width of the side panel for families searched over a narrow range (stars near z = 0), CSS px. */
+export const INSET_WIDTH_PX = 150;
+/** Gap between the main plot and the side panel, CSS px. */
+export const INSET_GAP_PX = 28;
+/** A family whose curve spans less than this fraction of the whole redshift range gets the side panel. */
+export const NARROW_FRACTION = 0.02;
+/** Marks closer than this (CSS px) are stacked so their numbers stay readable. */
+const MARK_CLEARANCE_PX = 15;
+
+/**
+ * Families searched over a narrow range (a star's +-1000 km/s around z = 0
+ * on a 0-6.5 axis would be a few pixels wide): names of the curves whose
+ * redshift span is under NARROW_FRACTION of the span of all curves. Empty
+ * when every family is narrow or every family is wide.
+ */
+export function narrowFamilies(curves: readonly FitQualityCurve[]): Set<string> {
+  const span = (c: FitQualityCurve) => (c.z.length ? c.z[c.z.length - 1] - c.z[0] : 0);
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const c of curves) if (c.z.length) (lo = Math.min(lo, c.z[0])), (hi = Math.max(hi, c.z[c.z.length - 1]));
+  const total = hi - lo;
+  const narrow = new Set(curves.filter((c) => c.z.length > 0 && span(c) < NARROW_FRACTION * total).map((c) => c.family));
+  return narrow.size === 0 || narrow.size === new Set(curves.map((c) => c.family)).size ? new Set() : narrow;
+}
+
+/** Velocity scale of the side panel: cz in km/s (a small-z velocity), over the narrow families' range. */
+export function insetScale(curves: readonly FitQualityCurve[], narrow: ReadonlySet<string>, widthPx: number): d3.ScaleLinear<number, number> | null {
+  if (!narrow.size) return null;
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const c of curves) if (narrow.has(c.family) && c.z.length) (lo = Math.min(lo, c.z[0])), (hi = Math.max(hi, c.z[c.z.length - 1]));
+  if (!(hi > lo)) return null;
+  const right = widthPx - FIT_MARGINS.right;
+  return d3
+    .scaleLinear()
+    .domain([lo * SPEED_OF_LIGHT_KMS, hi * SPEED_OF_LIGHT_KMS])
+    .range([right - INSET_WIDTH_PX, right]);
 }
 
 /** Space around the plot rectangle (legend on top, axes left and bottom), CSS px. */
@@ -61,6 +106,7 @@ export function fitQualityScales(
   candidates: readonly FitQualityCandidate[],
   widthPx: number,
   heightPx: number,
+  narrow: ReadonlySet<string> = new Set(),
 ): { x: d3.ScaleLinear<number, number>; y: d3.ScaleSymLog<number, number> } {
   let z0 = Infinity;
   let z1 = -Infinity;
@@ -76,15 +122,17 @@ export function fitQualityScales(
       c1 = Math.max(c1, c);
     }
   };
-  for (const cu of curves) for (let i = 0; i < cu.z.length; i++) take(cu.z[i], cu.deltaChi2[i]);
-  for (const ca of candidates) take(ca.z, ca.deltaChi2);
+  // Narrow families (drawn in the side panel) count for the y extent only.
+  for (const cu of curves) for (let i = 0; i < cu.z.length; i++) take(narrow.has(cu.family) ? NaN : cu.z[i], cu.deltaChi2[i]);
+  for (const ca of candidates) take(narrow.has(ca.family) ? NaN : ca.z, ca.deltaChi2);
   if (!(z1 > z0)) {
     z0 = Number.isFinite(z0) ? z0 - 0.1 : 0;
     z1 = z0 + 0.2;
   }
   if (!(c1 > c0)) c1 = c0 + 10;
   const m = FIT_MARGINS;
-  const x = d3.scaleLinear().domain([z0, z1]).range([m.left, widthPx - m.right]);
+  const inset = narrow.size ? INSET_WIDTH_PX + INSET_GAP_PX : 0;
+  const x = d3.scaleLinear().domain([z0, z1]).range([m.left, widthPx - m.right - inset]);
   // Delta chi-square 0 (the best candidate) sits FIT_FLOOR_PX above the axis so its mark stays clear of it.
   const y = d3.scaleSymlog().constant(SYMLOG_CONSTANT).domain([c0, c1 * 1.15]).range([heightPx - m.bottom - FIT_FLOOR_PX, m.top]);
   return { x, y };
@@ -112,7 +160,16 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
   const callbacks = useRef({ onPickCandidate: props.onPickCandidate, onPickZ: props.onPickZ });
   callbacks.current = { onPickCandidate: props.onPickCandidate, onPickZ: props.onPickZ };
 
-  const scales = useMemo(() => fitQualityScales(curves, candidates, width, height), [curves, candidates, width, height]);
+  const narrow = useMemo(() => narrowFamilies(curves), [curves]);
+  const scales = useMemo(() => {
+    const sc = fitQualityScales(curves, candidates, width, height, narrow);
+    return { ...sc, xi: insetScale(curves, narrow, width) };
+  }, [curves, candidates, width, height, narrow]);
+  /** Pixel x of a redshift for a family: the side panel's velocity scale for narrow families. */
+  const xOf = useMemo(() => {
+    const { x, xi } = scales;
+    return (family: string, z: number) => (xi && narrow.has(family) ? xi(z * SPEED_OF_LIGHT_KMS) : x(z));
+  }, [scales, narrow]);
   const familyIndex = useMemo(() => {
     const m = new Map<string, number>();
     for (const c of curves) if (!m.has(c.family)) m.set(c.family, m.size);
@@ -145,16 +202,20 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
   useLayoutEffect(() => {
     const svgEl = svgRef.current!;
     const svg = d3.select(svgEl);
-    const { x, y } = scales;
+    const { x, y, xi } = scales;
     const local = (e: MouseEvent): [number, number] => {
       const r = svgEl.getBoundingClientRect();
       return [e.clientX - r.left, e.clientY - r.top];
     };
-    const inside = ([px, py]: [number, number]) => px >= x.range()[0] && px <= x.range()[1] && py >= y.range()[1] && py <= y.range()[0] + FIT_FLOOR_PX;
+    const inY = (py: number) => py >= y.range()[1] && py <= y.range()[0] + FIT_FLOOR_PX;
+    const inInset = ([px, py]: [number, number]) => !!xi && px >= xi.range()[0] && px <= xi.range()[1] && inY(py);
+    const inside = (p: [number, number]) => (p[0] >= x.range()[0] && p[0] <= x.range()[1] && inY(p[1])) || inInset(p);
+    /** Redshift under a pixel x: from the velocity scale in the side panel. */
+    const zAt = (px: number) => (xi && px >= xi.range()[0] ? xi.invert(px) / SPEED_OF_LIGHT_KMS : x.invert(px));
     svg.on('click.fq', (e: MouseEvent) => {
       const p = local(e);
       if (curves.length === 0 || !inside(p)) return;
-      callbacks.current.onPickZ?.(x.invert(p[0]));
+      callbacks.current.onPickZ?.(zAt(p[0]));
     });
     svg.on('mousemove.fq', (e: MouseEvent) => {
       const p = local(e);
@@ -174,14 +235,15 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
         .attr('y2', y.range()[0])
         .attr('stroke', '#999')
         .attr('stroke-dasharray', '2 3');
-      const z = x.invert(p[0]);
+      const z = zAt(p[0]);
       const parts = curves.map((c) => {
         let i = lowerBound(c.z, z);
         if (i >= c.z.length || (i > 0 && z - c.z[i - 1] < c.z[i] - z)) i--;
         const v = i >= 0 ? c.deltaChi2[i] : NaN;
         return `${c.family} Δχ² ${Number.isFinite(v) ? fmtChi(v) : '–'}`;
       });
-      if (readoutRef.current) readoutRef.current.textContent = `z ${fmtZ(z)} · ${parts.join(' · ')}`;
+      const zText = inInset(p) ? `z ${d3.format('.5f')(z)} (cz ${d3.format(',.0f')(z * SPEED_OF_LIGHT_KMS)} km/s)` : `z ${fmtZ(z)}`;
+      if (readoutRef.current) readoutRef.current.textContent = `${zText} · ${parts.join(' · ')}`;
     });
     svg.on('mouseleave.fq', () => layers.current?.hover.selectAll('line').remove());
   }, [scales, curves]);
@@ -190,12 +252,12 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
   useLayoutEffect(() => {
     const L = layers.current;
     if (!L) return;
-    const { x, y } = scales;
+    const { x, y, xi } = scales;
     const pathOf = (c: FitQualityCurve) =>
       d3
         .line<number>()
         .defined((i) => Number.isFinite(c.z[i]) && Number.isFinite(c.deltaChi2[i]))
-        .x((i) => x(c.z[i]))
+        .x((i) => xOf(c.family, c.z[i]))
         .y((i) => y(c.deltaChi2[i]))(d3.range(Math.min(c.z.length, c.deltaChi2.length))) ?? '';
     L.curves
       .selectAll<SVGPathElement, FitQualityCurve>('path')
@@ -203,6 +265,7 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
       .join('path')
       .attr('class', 'fq-curve')
       .attr('data-family', (c) => c.family)
+      .attr('data-panel', (c) => (narrow.has(c.family) ? 'inset' : 'main'))
       .attr('fill', 'none')
       .attr('stroke-width', 1.5)
       .attr('stroke', (c) => familyStyle(familyIndex.get(c.family) ?? 0).colour)
@@ -224,6 +287,23 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
       .attr('text-anchor', 'middle')
       .attr('font-size', 11)
       .text('Redshift z');
+    if (xi) {
+      // Side panel: families searched over a narrow range, on a velocity axis.
+      const [a, b] = xi.range();
+      L.axes.append('g').attr('transform', `translate(0,${bottom})`).call(d3.axisBottom(xi).ticks(3).tickFormat((v) => d3.format('~s')(+v)));
+      L.axes
+        .append('g')
+        .attr('transform', `translate(${a},0)`)
+        .call((g) => g.append('line').attr('y1', y.range()[1]).attr('y2', bottom).attr('stroke', 'currentColor').attr('stroke-opacity', 0.5));
+      L.axes
+        .append('text')
+        .attr('class', 'fq-inset-title')
+        .attr('x', (a + b) / 2)
+        .attr('y', height - 4)
+        .attr('text-anchor', 'middle')
+        .attr('font-size', 11)
+        .text(`${[...narrow].join(', ')}: cz (km/s)`);
+    }
     L.axes
       .append('text')
       .attr('transform', 'rotate(-90)')
@@ -267,14 +347,23 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
       .attr('font-size', 12)
       .attr('fill', '#555')
       .text((t) => t);
-  }, [scales, curves, familyIndex, height]);
+  }, [scales, curves, familyIndex, height, xOf, narrow]);
 
   // Candidate marks: on candidates, selection or scale changes.
   useLayoutEffect(() => {
     const L = layers.current;
     if (!L) return;
-    const { x, y } = scales;
-    const items = candidates.map((c, i) => ({ c, i }));
+    const { y } = scales;
+    const keyOrder = props.keyed ?? candidates.map((_, i) => i);
+    // Each mark at its z and delta chi-square; marks that would cover each other are stacked upwards.
+    const items = keyOrder
+      .filter((i) => candidates[i])
+      .map((i, k) => ({ c: candidates[i], i, k, cx: xOf(candidates[i].family, candidates[i].z), cy: y(candidates[i].deltaChi2) }));
+    const placed: { cx: number; cy: number }[] = [];
+    for (const it of [...items].sort((a, b) => a.k - b.k)) {
+      while (placed.some((p) => Math.abs(p.cx - it.cx) < MARK_CLEARANCE_PX && Math.abs(p.cy - it.cy) < MARK_CLEARANCE_PX)) it.cy -= MARK_CLEARANCE_PX;
+      placed.push(it);
+    }
     L.marks
       .selectAll<SVGGElement, (typeof items)[number]>('g.fq-candidate')
       .data(items, (d) => `${d.i}`)
@@ -299,9 +388,8 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
         const g = d3.select(this);
         const s = familyStyle(familyIndex.get(d.c.family) ?? 0);
         const selected = d.i === selectedCandidate;
-        const cx = x(d.c.z);
-        const cy = y(d.c.deltaChi2);
-        const label = `Candidate ${d.i + 1}: z = ${fmtZ(d.c.z)}, ${d.c.class} (${d.c.family}), Δχ² = ${fmtChi(d.c.deltaChi2)}`;
+        const { cx, cy } = d;
+        const label = `Candidate ${d.k + 1}: z = ${fmtZ(d.c.z)}, ${d.c.class} (${d.c.family}), Δχ² = ${fmtChi(d.c.deltaChi2)}`;
         g.attr('data-candidate-index', d.i).attr('aria-label', label).attr('aria-pressed', selected ? 'true' : 'false');
         g.select('circle')
           .attr('cx', cx)
@@ -314,18 +402,22 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
           .attr('x', cx)
           .attr('y', cy + 3.5)
           .attr('fill', selected ? 'white' : s.colour)
-          .text(String(d.i + 1));
+          .text(String(d.k + 1));
         g.select('title').text(label);
       });
-  }, [scales, candidates, selectedCandidate, familyIndex]);
+  }, [scales, candidates, selectedCandidate, familyIndex, xOf, props.keyed]);
 
   // Current redshift rule: the cheapest layer, on its own.
   useLayoutEffect(() => {
     const L = layers.current;
     if (!L) return;
-    const { x, y } = scales;
+    const { x, y, xi } = scales;
     const [a, b] = x.domain();
-    const data = currentZ !== null && Number.isFinite(currentZ) && currentZ >= a && currentZ <= b ? [currentZ] : [];
+    const inMain = currentZ !== null && Number.isFinite(currentZ) && currentZ >= a && currentZ <= b;
+    const vi = xi && currentZ !== null ? currentZ * SPEED_OF_LIGHT_KMS : NaN;
+    const inInset = !!xi && Number.isFinite(vi) && vi >= xi.domain()[0] && vi <= xi.domain()[1];
+    const data = currentZ !== null && (inMain || inInset) ? [currentZ] : [];
+    const xRule = (v: number) => (inInset && xi ? xi(v * SPEED_OF_LIGHT_KMS) : x(v));
     const g = L.rule
       .selectAll<SVGGElement, number>('g')
       .data(data)
@@ -336,15 +428,15 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
         return e;
       });
     g.select('line')
-      .attr('x1', (v) => x(v))
-      .attr('x2', (v) => x(v))
+      .attr('x1', (v) => xRule(v))
+      .attr('x2', (v) => xRule(v))
       .attr('y1', y.range()[1])
       .attr('y2', y.range()[0])
       .attr('stroke', '#000')
       .attr('stroke-width', 1.5)
       .attr('stroke-dasharray', '6 2 1 2');
     g.select('text')
-      .attr('x', (v) => x(v) + 3)
+      .attr('x', (v) => xRule(v) + 3)
       .attr('y', y.range()[1] + 10)
       .text((v) => `z = ${fmtZ(v)}`);
   }, [scales, currentZ]);

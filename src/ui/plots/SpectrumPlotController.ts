@@ -9,7 +9,7 @@ import * as d3 from 'd3';
 import { lowerBound, upperBound } from './decimate';
 import type { DisplaySeries } from './displaySeries';
 import { drawSpectrumFrame, type FrameStats, type PlotRect } from './drawSpectrumFrame';
-import { layoutMarkerLabels, shiftedMarkersInRange, type LineMarker } from './markerLayout';
+import { placeMarkerLabels, shiftedMarkersInRange, type LineMarker } from './markerLayout';
 import { SPECTRUM_COLOURS } from './palette';
 import { robustYRange } from './robustYRange';
 import { applyViewAction, clampDomain, keyToViewAction, zoomTransformFor } from './viewActions';
@@ -344,11 +344,13 @@ export class SpectrumPlotController {
     const p = this.plotRect();
     const x = this.xScale();
     const shown = shiftedMarkersInRange(this.overlays.markers, this.overlays.z, this.viewA[0], this.viewA[1]);
-    const rows = layoutMarkerLabels(
+    const places = placeMarkerLabels(
       shown.map((m) => ({ xPx: x(m.observedA), label: m.label, strength: m.strength })),
       LABEL_ROWS,
+      p.left,
+      p.left + p.width,
     );
-    const items = shown.map((m, i) => ({ m, px: x(m.observedA), row: rows[i] }));
+    const items = shown.map((m, i) => ({ m, px: x(m.observedA), row: places[i].row, labelPx: places[i].xPx }));
     const triangle = d3.symbol(d3.symbolTriangle, 30)() ?? '';
     this.layers.markers
       .selectAll<SVGGElement, (typeof items)[number]>('g.sm-marker')
@@ -380,7 +382,7 @@ export class SpectrumPlotController {
           .attr('fill', colour)
           .attr('transform', `translate(${d.px},${p.top + LABEL_ROWS * LABEL_ROW_PX + 4}) rotate(${d.m.kind === 'emission' ? 0 : 180})`);
         g.select('text')
-          .attr('x', d.px)
+          .attr('x', d.labelPx)
           .attr('y', p.top + 10 + (d.row ?? 0) * LABEL_ROW_PX)
           .attr('fill', colour)
           .attr('stroke', 'white')

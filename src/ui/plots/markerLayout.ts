@@ -85,18 +85,41 @@ export interface LabelRequest {
  * Returns the row of each request, in request order.
  */
 export function layoutMarkerLabels(requests: readonly LabelRequest[], nRows: number): (number | null)[] {
+  return placeMarkerLabels(requests, nRows, -Infinity, Infinity, false).map((p) => p.row);
+}
+
+/** Where a label goes: its row (null = not drawn) and the centre of its text, CSS px. */
+export interface LabelPlace {
+  row: number | null;
+  xPx: number;
+}
+
+/**
+ * As layoutMarkerLabels, inside [leftPx, rightPx]: a label near an edge slides
+ * inwards so it is never cut off (its line stays where it is), and a label
+ * equal to one already placed within two label widths is not repeated (the
+ * two lines of a doublet carry one label).
+ */
+export function placeMarkerLabels(requests: readonly LabelRequest[], nRows: number, leftPx = -Infinity, rightPx = Infinity, oneLabelPerDoublet = true): LabelPlace[] {
   const order = requests.map((_, i) => i).sort((a, b) => requests[b].strength - requests[a].strength || requests[a].xPx - requests[b].xPx);
   const rows: [number, number][][] = Array.from({ length: Math.max(0, nRows) }, () => []);
-  const result: (number | null)[] = requests.map(() => null);
+  const result: LabelPlace[] = requests.map((q) => ({ row: null, xPx: q.xPx }));
+  const placed: { label: string; xPx: number }[] = [];
   for (const i of order) {
-    const w = labelWidthPx(requests[i].label);
-    const a = requests[i].xPx - w / 2;
-    const b = requests[i].xPx + w / 2;
+    const q = requests[i];
+    const w = labelWidthPx(q.label);
+    if (oneLabelPerDoublet && placed.some((p) => p.label === q.label && Math.abs(p.xPx - q.xPx) < 2 * w)) continue;
+    let x = q.xPx;
+    if (x - w / 2 < leftPx) x = leftPx + w / 2;
+    if (x + w / 2 > rightPx) x = Math.max(leftPx + w / 2, rightPx - w / 2);
+    const a = x - w / 2;
+    const b = x + w / 2;
     for (let r = 0; r < rows.length; r++) {
       const clash = rows[r].some(([c, d]) => a < d + LABEL_GAP_PX && c < b + LABEL_GAP_PX);
       if (!clash) {
         rows[r].push([a, b]);
-        result[i] = r;
+        result[i] = { row: r, xPx: x };
+        placed.push({ label: q.label, xPx: q.xPx });
         break;
       }
     }

@@ -204,6 +204,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
           selected={solution?.candidateIndex ?? null}
           onPick={rs.pickCandidate}
           onPickZ={(z) => void rs.refitAt(z, 'refit')}
+          keyed={rs.keyed}
         />
         )}
         <DecisionBox

@@ -6,7 +6,7 @@
  * worker is checked against the spectrum it was asked for, so a late answer
  * for a spectrum the reviewer has left is dropped.
  */
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { FitResult, Grade, Spectrum, SpectrumClass } from '../../core/types';
 import type { LineSuggestion } from '../../core/engine/identify';
 import type { FeatureAnswer } from '../../worker/fitWorkerApi';
@@ -225,7 +225,7 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
     dirty.current = true;
   };
 
-  const keyed = result ? keyedCandidates(result.candidates) : [];
+  const keyed = useMemo(() => (result ? keyedCandidates(result.candidates) : []), [result]);
 
   const pickCandidate = useCallback(
     (i: number) => {

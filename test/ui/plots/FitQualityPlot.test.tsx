@@ -109,3 +109,51 @@ describe('fitQualityScales(curves, candidates, widthPx, heightPx)', () => {
     expect(y.domain()[0]).toBe(0);
   });
 });
+
+describe('families searched over a narrow range (stars near z = 0)', () => {
+  // Synthetic star curve over +-0.0033 (about +-1000 km/s), well at z = 0.0002.
+  const cKms = 299792.458; // speed of light, km/s (SI definition)
+  const zStar = Float64Array.from({ length: 67 }, (_, i) => -0.0033 + i * 0.0001);
+  const withStar = [...curves, { family: 'star', z: zStar, deltaChi2: zStar.map((z) => 90 + 1e8 * (z - 0.0002) ** 2) }];
+  const starCands = [...candidates, { z: 0.0002, family: 'star', class: 'star', deltaChi2: 90 }];
+
+  it('gets its own panel on a velocity axis, so its well is as wide as the panel, not a few pixels', () => {
+    const { container } = render(<FitQualityPlot {...props({ curves: withStar, candidates: starCands })} />);
+    const star = container.querySelector('path.fq-curve[data-family="star"]')!;
+    expect(star.getAttribute('data-panel')).toBe('inset');
+    expect(container.querySelector('path.fq-curve[data-family="qso"]')!.getAttribute('data-panel')).toBe('main');
+    const xs = [...star.getAttribute('d')!.matchAll(/[ML]([-\d.]+),/g)].map((m) => Number(m[1]));
+    const main = fitQualityScales(withStar, starCands, FIT_FALLBACK_WIDTH_PX, 200, new Set(['star'])).x;
+    expect(Math.max(...xs) - Math.min(...xs)).toBeGreaterThan(100);
+    expect(Math.min(...xs)).toBeGreaterThan(main.range()[1]);
+    // The star candidate's mark sits in the panel at its velocity.
+    const mark = container.querySelector('g.fq-candidate[data-candidate-index="2"] circle')!;
+    expect(Number(mark.getAttribute('cx'))).toBeGreaterThan(main.range()[1]);
+    expect(screen.getByText(/star: cz \(km\/s\)/)).toBeTruthy();
+  });
+
+  it('a click in the panel picks the redshift of that velocity', () => {
+    const onPickZ = vi.fn();
+    const { container } = render(<FitQualityPlot {...props({ curves: withStar, candidates: starCands, onPickZ })} />);
+    const svg = container.querySelector('svg')!;
+    const right = FIT_FALLBACK_WIDTH_PX - FIT_MARGINS.right;
+    const px = right - 20;
+    fireEvent.click(svg, { clientX: px, clientY: 100 });
+    const v = d3.scaleLinear().domain([-0.0033 * cKms, (-0.0033 + 66 * 0.0001) * cKms]).range([right - 150, right]);
+    expect(onPickZ.mock.calls[0][0]).toBeCloseTo(v.invert(px) / cKms, 8);
+  });
+
+  it('marks only the keyed candidates, numbered by key, and stacks marks that would cover each other', () => {
+    const close = [
+      { z: 2.1, family: 'qso', class: 'qso', deltaChi2: 0 },
+      { z: 2.1005, family: 'qso', class: 'qso', deltaChi2: 1 },
+      { z: 0.45, family: 'galaxy-sf', class: 'galaxy', deltaChi2: 40 },
+    ];
+    const { container } = render(<FitQualityPlot {...props({ candidates: close, keyed: [0, 1] })} />);
+    const marks = [...container.querySelectorAll('g.fq-candidate')];
+    expect(marks.map((m) => m.querySelector('text')!.textContent)).toEqual(['1', '2']);
+    const [a, b] = marks.map((m) => m.querySelector('circle')!);
+    const d = Math.hypot(Number(a.getAttribute('cx')) - Number(b.getAttribute('cx')), Number(a.getAttribute('cy')) - Number(b.getAttribute('cy')));
+    expect(d).toBeGreaterThanOrEqual(14);
+  });
+});

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import {
   labelWidthPx,
   layoutMarkerLabels,
+  placeMarkerLabels,
   LABEL_GAP_PX,
   shiftedMarkersInRange,
   strongestLinesInRange,
@@ -79,5 +80,31 @@ describe('layoutMarkerLabels(requests, nRows)', () => {
       for (let k = 1; k < spans.length; k++) expect(spans[k][0]).toBeGreaterThanOrEqual(spans[k - 1][1] + LABEL_GAP_PX);
     }
     expect(rows.some((r) => r === null)).toBe(true);
+  });
+});
+
+describe('placeMarkerLabels inside the plot', () => {
+  it('slides a label at the edge inwards so none of it is cut off', () => {
+    const [p] = placeMarkerLabels([{ xPx: 52, label: '[Ne V]', strength: 1 }], 2, 50, 800);
+    const w = labelWidthPx('[Ne V]');
+    expect(p.row).toBe(0);
+    expect(p.xPx - w / 2).toBeGreaterThanOrEqual(50);
+    const [q] = placeMarkerLabels([{ xPx: 799, label: '[S II]', strength: 1 }], 2, 50, 800);
+    expect(q.xPx + labelWidthPx('[S II]') / 2).toBeLessThanOrEqual(800);
+  });
+
+  it('gives the two lines of a doublet one label, and still places other labels', () => {
+    const places = placeMarkerLabels(
+      [
+        { xPx: 400, label: '[O III]', strength: 1 },
+        { xPx: 392, label: '[O III]', strength: 0.3 },
+        { xPx: 398, label: 'Hβ', strength: 0.5 },
+      ],
+      3,
+    );
+    expect(places.filter((p) => p.row !== null)).toHaveLength(2);
+    expect(places[0].row).not.toBeNull();
+    expect(places[1].row).toBeNull();
+    expect(layoutMarkerLabels([{ xPx: 400, label: 'a', strength: 1 }], 1)).toEqual([0]);
   });
 });

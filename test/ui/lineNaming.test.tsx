@@ -28,7 +28,8 @@ describe('LineNamingList', () => {
     const options = screen.getAllByTestId('line-option');
     expect(options.map((o) => o.querySelector('.opt-label')!.textContent)).toEqual(['Mg II', '[O II]', 'C III]', 'H\u03b2']);
     expect(options[0].textContent).toContain('z = 0.7865');
-    expect(options[0].textContent).toContain('3 other lines agree');
+    expect(options[0].textContent).toContain('quick check: 3 other lines found');
+    expect(options[3].textContent).toContain('quick check: no other line found');
   });
 
   it('with the fit curves, puts the line whose redshift the templates fit best first', () => {

@@ -72,7 +72,10 @@ export function LineNamingList({ answer, onChoose, onClose, busy = false, curves
         {fmtNum(f.snr, 1)}). Which line is it?
       </p>
       {ranked.length === 0 ? (
-        <p>No catalogue line of this kind fits a positive redshift here.</p>
+        <p>
+          No catalogue {f.kind === 'emission' ? 'emission' : 'absorption'} line puts this feature at a positive redshift.
+          {f.kind === 'absorption' ? ' A wide trough on the blue side of a broad emission line is often outflow absorption (BAL): flag it (w) instead of naming it.' : ''}
+        </p>
       ) : (
         <ul role="listbox" aria-label="Possible lines" tabIndex={0} ref={list} onKeyDown={onKey} aria-activedescendant={`line-option-${active}`} aria-busy={busy}>
           {ranked.slice(0, 20).map((s, i) => (
@@ -89,8 +92,8 @@ export function LineNamingList({ answer, onChoose, onClose, busy = false, curves
               <span className="opt-label">{s.label}</span>
               <span className="opt-rest">{fmtNum(s.restA, 1)} Å</span>
               <span className="opt-z">z = {fmtZ(s.z)}</span>
-              <span className="opt-support">
-                {s.supporting} other line{s.supporting === 1 ? '' : 's'} agree
+              <span className="opt-support" title="A quick test at the catalogue positions, not a fit: a line it misses can still be there. Check the spectrum.">
+                {s.supporting === 0 ? 'quick check: no other line found' : `quick check: ${s.supporting} other line${s.supporting === 1 ? '' : 's'} found`}
               </span>
               {Number.isFinite(s.fitDeltaChi2) ? <span className="opt-fit">fit Δχ² {fmtNum(s.fitDeltaChi2, 1)}</span> : null}
             </li>

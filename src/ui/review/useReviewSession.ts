@@ -134,6 +134,7 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
   /** True once the reviewer has changed anything on this spectrum since it was opened or decided. */
   const dirty = useRef(false);
   const [loaded, setLoaded] = useState(false);
+  const draftTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
 
   // A spectrum opened while its fit was still running is loaded again when the fit lands.
   const fitted = row.summary !== undefined;
@@ -367,6 +368,7 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
     lastDecision.current = decision;
     if (before === decision) return;
     dirty.current = false;
+    if (draftTimer.current) clearTimeout(draftTimer.current);
     session.saveDraft(null);
     if (before && !decision) {
       // Undo: back to what an unreviewed spectrum shows, with nothing staged.
@@ -384,7 +386,10 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
   useEffect(() => {
     if (!loaded || !dirty.current) return;
     const d: PanelDraft = { key, solution: solution ? stripLines(solution) : null, typedZ, grade, note, flags };
-    const t = setTimeout(() => session.saveDraft(d), DRAFT_WRITE_DELAY_MS);
+    const t = setTimeout(() => {
+      if (dirty.current) session.saveDraft(d);
+    }, DRAFT_WRITE_DELAY_MS);
+    draftTimer.current = t;
     return () => clearTimeout(t);
   }, [loaded, key, solution, typedZ, grade, note, flags, session]);
 

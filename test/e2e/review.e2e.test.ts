@@ -231,11 +231,16 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
       expect(await setByOf(page)).toBe(m.setBy);
     }
     await page.screenshot({ path: artifactPath('review-screen.png') });
+    // Compare the shown solution with the next candidate (o): a dashed model and the other solution's lines.
+    await page.keyboard.press('o');
+    await page.getByTestId('compare-note').waitFor();
     for (const size of [{ width: 1366, height: 768 }, { width: 1920, height: 1080 }]) {
       await page.setViewportSize(size);
       await page.waitForTimeout(300);
       await page.screenshot({ path: artifactPath(`review-screen-${size.width}x${size.height}.png`) });
     }
+    await page.keyboard.press('Escape');
+    await page.getByTestId('compare-note').waitFor({ state: 'detached' });
 
     // 5. Export CSV through the export panel (key t) and check it row by row.
     await page.keyboard.press('t');

@@ -4,9 +4,14 @@
  */
 export const PLOT_KEYS = [{ keys: ['0'], action: 'Show the whole spectrum' }];
 
-export function SpectrumView(props: { z: number | null; onFeatureClick?: (a: number) => void; wavelengthA: Float64Array }) {
+export function SpectrumView(props: {
+  z: number | null;
+  onFeatureClick?: (a: number) => void;
+  wavelengthA: Float64Array;
+  compare?: { z: number; model: Float64Array | null } | null;
+}) {
   return (
-    <div data-testid="spectrum-view" data-z={props.z ?? ''} tabIndex={0}>
+    <div data-testid="spectrum-view" data-z={props.z ?? ''} data-compare-z={props.compare?.z ?? ''} data-compare-model={props.compare?.model ? 'yes' : ''} tabIndex={0}>
       {props.wavelengthA.length} px
       <button type="button" onClick={() => props.onFeatureClick?.(5000)}>
         click feature at 5000

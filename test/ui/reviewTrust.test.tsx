@@ -84,6 +84,35 @@ describe('every class one key away', () => {
   });
 });
 
+describe('comparing two solutions', () => {
+  it('o overlays the next candidate (model and markers) beside the shown one, cycles, and Escape turns it off', async () => {
+    const cands = [makeCandidate(1.2, 'qso', 0), makeCandidate(0.35, 'galaxy', 40), makeCandidate(0.0001, 'star', 70)];
+    const { session, db } = await batch(['a.txt'], (f) => makeResult(f, { candidates: cands }));
+    const review = fakeReview({ solutionModel: vi.fn(async () => new Float64Array(200)) });
+    render(<App services={{ session, review }} />);
+    await screen.findByText('200 px');
+    const view = () => screen.getByTestId('spectrum-view');
+    press('o');
+    expect((await screen.findByTestId('compare-note')).textContent).toMatch(/candidate 2: z = 0\.35000 galaxy/);
+    await waitUntil(() => view().getAttribute('data-compare-model') === 'yes', 'compared model');
+    expect(review.solutionModel).toHaveBeenCalledWith(expect.any(String), cands[1].z, cands[1].family);
+    expect(Number(view().getAttribute('data-compare-z'))).toBe(cands[1].z);
+    // The shown solution stays what it was.
+    expect(Number(view().getAttribute('data-z'))).toBe(cands[0].z);
+    press('o');
+    expect(screen.getByTestId('compare-note').textContent).toMatch(/candidate 3/);
+    press('o');
+    expect(screen.queryByTestId('compare-note')).toBeNull();
+    press('o');
+    expect(screen.getByTestId('compare-note')).toBeTruthy();
+    press('Escape');
+    expect(screen.queryByTestId('compare-note')).toBeNull();
+    expect(view().getAttribute('data-compare-z')).toBe('');
+    cleanup();
+    db.close();
+  });
+});
+
 describe('undo', () => {
   it('leaves nothing staged: the automatic solution is shown as unreviewed, and accepting keeps it', async () => {
     const { session, db } = await batch(['a.txt', 'b.txt']);

@@ -16,6 +16,7 @@ export type ActionId =
   | 'candidate'
   | 'bestOfClass'
   | 'refine'
+  | 'compare'
   | 'flag'
   | 'jump'
   | 'typeZ'
@@ -48,6 +49,7 @@ export const KEY_MAP: readonly KeyBinding[] = [
   { action: 'candidate', keys: ['1', '2', '3', '4', '5', '6', '7', '8', '9'], label: 'Show candidate 1 to 9 (in the line list: choose that line)' },
   { action: 'bestOfClass', keys: ['Q', 'G', 'S'], label: 'Show the best quasar (Shift+Q), galaxy (Shift+G) or star (Shift+S) solution' },
   { action: 'refine', keys: ['r'], label: 'Refit near the redshift shown (after naming a line or typing a z); says how far it moved' },
+  { action: 'compare', keys: ['o'], label: 'Compare with another candidate (its model dashed, its lines as ticks from the bottom); again for the next, then off' },
   { action: 'typeZ', keys: ['z'], label: 'Type a redshift' },
   { action: 'nameLine', keys: ['l'], label: 'Name a line: type its observed wavelength (or click a feature in the spectrum)' },
   { action: 'grade', keys: ['g'], label: 'Cycle your confidence grade: high, medium, low, none' },

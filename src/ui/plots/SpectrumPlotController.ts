@@ -21,6 +21,8 @@ export const LABEL_ROWS = 3;
 export const LABEL_ROW_PX = 12;
 /** Height at the top of the plot kept free of data for the line labels and glyphs, CSS px. */
 export const LABEL_BAND_PX = LABEL_ROWS * LABEL_ROW_PX + 8;
+/** Height of the comparison solution's marker ticks, CSS px. */
+export const COMPARE_TICK_PX = 22;
 /** Narrowest view, in median pixel steps of the spectrum. */
 export const MIN_VIEW_PIXELS = 10;
 
@@ -37,6 +39,8 @@ export interface SpectrumOverlays {
   highlightA: number | null;
   /** Flux unit string for the axis title, as the file gives it. */
   fluxUnit?: string;
+  /** A second solution to compare: its markers are drawn as ticks up from the bottom, labelled there. */
+  compare?: { z: number; markers: readonly LineMarker[] } | null;
 }
 
 const DIRTY_DATA = 1;
@@ -56,13 +60,14 @@ export class SpectrumPlotController {
   private readonly readout: HTMLElement | null;
   private readonly zoom: d3.ZoomBehavior<SVGSVGElement, unknown>;
   private readonly layers: Record<
-    'sky' | 'highlight' | 'markers' | 'axisBottom' | 'axisTop' | 'axisLeft' | 'titles' | 'crosshair' | 'note',
+    'sky' | 'highlight' | 'markers' | 'compare' | 'axisBottom' | 'axisTop' | 'axisLeft' | 'titles' | 'crosshair' | 'note',
     d3.Selection<SVGGElement, unknown, null, undefined>
   >;
   private readonly clipRect: d3.Selection<SVGRectElement, unknown, null, undefined>;
 
   private series: DisplaySeries | null = null;
   private model: Float64Array | null = null;
+  private compareModel: Float64Array | null = null;
   private widthPx = 0;
   private heightPx = 0;
   private pixelRatio = 1;
@@ -95,6 +100,7 @@ export class SpectrumPlotController {
       sky: layer('sm-sky', true),
       highlight: layer('sm-highlight', true),
       markers: layer('sm-markers', true),
+      compare: layer('sm-compare', true),
       axisBottom: layer('sm-axis-bottom', false),
       axisTop: layer('sm-axis-top', false),
       axisLeft: layer('sm-axis-left', false),
@@ -127,6 +133,14 @@ export class SpectrumPlotController {
   }
 
   // ---- inputs -------------------------------------------------------------
+
+  /** The second solution's model for comparison (null = none). */
+  setCompareModel(model: Float64Array | null): void {
+    const m = model && this.series && model.length === this.series.wavelengthA.length ? model : null;
+    if (m === this.compareModel) return;
+    this.compareModel = m;
+    this.mark(DIRTY_DATA);
+  }
 
   setData(series: DisplaySeries, model: Float64Array | null): void {
     if (series === this.series && model === this.model) return;
@@ -168,6 +182,7 @@ export class SpectrumPlotController {
     if (next.skyRegions !== prev.skyRegions) this.mark(DIRTY_SKY);
     if (next.highlightA !== prev.highlightA) this.mark(DIRTY_HIGHLIGHT);
     if (next.fluxUnit !== prev.fluxUnit) this.mark(DIRTY_Z);
+    if (next.compare?.z !== prev.compare?.z || next.compare?.markers !== prev.compare?.markers) this.mark(DIRTY_MARKERS);
     this.overlays = next;
   }
 
@@ -227,7 +242,10 @@ export class SpectrumPlotController {
     if (d & geometry) this.drawCanvas();
     // DIRTY_Z also covers the flux unit: both only change axis titles and ticks.
     if (d & (geometry | DIRTY_Z)) this.drawAxes();
-    if (d & (DIRTY_SIZE | DIRTY_VIEW | DIRTY_Z | DIRTY_MARKERS)) this.drawMarkers();
+    if (d & (DIRTY_SIZE | DIRTY_VIEW | DIRTY_Z | DIRTY_MARKERS)) {
+      this.drawMarkers();
+      this.drawCompareMarkers();
+    }
     if (d & (DIRTY_SIZE | DIRTY_VIEW | DIRTY_SKY)) this.drawSky();
     if (d & (DIRTY_SIZE | DIRTY_VIEW | DIRTY_HIGHLIGHT)) this.drawHighlight();
     if (d & DIRTY_DATA) this.drawNote();
@@ -296,6 +314,7 @@ export class SpectrumPlotController {
       yDomain: this.yDomain,
       series: this.series!,
       model: this.model,
+      compareModel: this.compareModel,
     });
     this.framesDrawn++;
   }
@@ -391,6 +410,54 @@ export class SpectrumPlotController {
           .attr('display', d.row === null ? 'none' : null)
           .text(d.m.label);
         g.select('title').text(`${d.m.label} ${d.m.kind}, rest ${fmtA(d.m.restA)} Å, observed ${fmtA(d.m.observedA)} Å`);
+      });
+  }
+
+  /** The comparison solution's lines: short dashed ticks up from the bottom of the plot, labelled just above them. */
+  private drawCompareMarkers(): void {
+    const p = this.plotRect();
+    const x = this.xScale();
+    const cmp = this.overlays.compare;
+    const shown = cmp ? shiftedMarkersInRange(cmp.markers, cmp.z, this.viewA[0], this.viewA[1]) : [];
+    const places = placeMarkerLabels(
+      shown.map((m) => ({ xPx: x(m.observedA), label: m.label, strength: m.strength })),
+      1,
+      p.left,
+      p.left + p.width,
+    );
+    const items = shown.map((m, i) => ({ m, px: x(m.observedA), row: places[i].row, labelPx: places[i].xPx }));
+    const bottom = p.top + p.height;
+    this.layers.compare
+      .selectAll<SVGGElement, (typeof items)[number]>('g.sm-compare-marker')
+      .data(items, (d) => d.m.id)
+      .join((enter) => {
+        const g = enter.append('g').attr('class', 'sm-compare-marker');
+        g.append('line');
+        g.append('text').attr('text-anchor', 'middle').attr('font-size', 10);
+        g.append('title');
+        return g;
+      })
+      .each(function (d) {
+        const g = d3.select(this);
+        g.attr('data-marker-id', d.m.id);
+        g.select('line')
+          .attr('x1', d.px)
+          .attr('x2', d.px)
+          .attr('y1', bottom - COMPARE_TICK_PX)
+          .attr('y2', bottom)
+          .attr('stroke', SPECTRUM_COLOURS.compare)
+          .attr('stroke-width', 1.5)
+          .attr('stroke-dasharray', '3 2');
+        g.select('text')
+          .attr('x', d.labelPx)
+          .attr('y', bottom - COMPARE_TICK_PX - 3)
+          .attr('fill', SPECTRUM_COLOURS.compare)
+          .attr('stroke', 'white')
+          .attr('stroke-width', 3)
+          .attr('paint-order', 'stroke')
+          .attr('display', d.row === null ? 'none' : null)
+          .text(d.m.label);
+        g.select('title').text(`compared solution: ${d.m.label}, observed ${fmtA(d.m.observedA)} Å`);
       });
   }
 

@@ -39,6 +39,8 @@ export interface SpectrumViewProps {
   resetKey?: string;
   /** Flux unit for the readout and axis title, as the file gives it. */
   fluxUnit?: string;
+  /** A second solution to compare with: its model (dashed) and its line markers (ticks from the bottom). */
+  compare?: { z: number; markers: LineMarker[]; model: Float64Array | null } | null;
 }
 
 /** Default plot height, CSS px. */
@@ -88,9 +90,23 @@ export function SpectrumView(props: SpectrumViewProps): ReactElement {
     ctrlRef.current?.setSize(width, height, dpr);
   }, [ctrl, width, height]);
 
+  const compareZ = props.compare?.z ?? null;
+  const compareMarkers = props.compare?.markers ?? null;
+  const compareModel = props.compare?.model ?? null;
   useLayoutEffect(() => {
-    ctrlRef.current?.setOverlays({ z, markers, skyRegions, highlightA, fluxUnit: props.fluxUnit });
-  }, [ctrl, z, markers, skyRegions, highlightA, props.fluxUnit]);
+    ctrlRef.current?.setOverlays({
+      z,
+      markers,
+      skyRegions,
+      highlightA,
+      fluxUnit: props.fluxUnit,
+      compare: compareZ !== null && compareMarkers ? { z: compareZ, markers: compareMarkers } : null,
+    });
+  }, [ctrl, z, markers, skyRegions, highlightA, props.fluxUnit, compareZ, compareMarkers]);
+
+  useLayoutEffect(() => {
+    ctrlRef.current?.setCompareModel(compareModel);
+  }, [ctrl, series, compareModel]);
 
   useLayoutEffect(() => {
     ctrlRef.current?.setOnFeatureClick(onFeatureClick);

@@ -39,6 +39,8 @@ export interface SpectrumFrame {
   series: DisplaySeries;
   /** Model flux on the same wavelength grid, or null. */
   model: Float64Array | null;
+  /** A second solution's model for comparison (drawn dashed), or null. */
+  compareModel?: Float64Array | null;
   /** 'auto' (default) decimates past DECIMATE_POINTS_PER_COLUMN per column; the others force a path, for tests and benchmarks. */
   decimate?: 'auto' | 'always' | 'never';
 }
@@ -109,6 +111,17 @@ export function drawSpectrumFrame(ctx: Canvas2DLike, f: SpectrumFrame): FrameSta
   if (byColumns) traceColumns(ctx, decimateMinMax(w, f.series.flux, x0, x1, nCols), colX, Y);
   else tracePoints(ctx, w, f.series.flux, i0, i1, X, Y);
   ctx.stroke();
+
+  if (f.compareModel && f.compareModel.length === w.length) {
+    ctx.strokeStyle = SPECTRUM_COLOURS.compare;
+    ctx.lineWidth = 1.5;
+    ctx.setLineDash([6, 4]);
+    ctx.beginPath();
+    if (byColumns) traceColumns(ctx, decimateMinMax(w, f.compareModel, x0, x1, nCols), colX, Y);
+    else tracePoints(ctx, w, f.compareModel, i0, i1, X, Y);
+    ctx.stroke();
+    ctx.setLineDash([]);
+  }
 
   if (f.model && f.model.length === w.length) {
     ctx.strokeStyle = SPECTRUM_COLOURS.model;

@@ -32,6 +32,8 @@ export const SPECTRUM_COLOURS = {
   skyAlpha: 0.28,
   highlight: OKABE_ITO.orange,
   crosshair: '#666666',
+  /** A second solution for comparison: its model dashed, its markers as ticks from the bottom. */
+  compare: OKABE_ITO.bluishGreen,
 } as const;
 
 /** Family colours for fit-quality curves, paired with dash patterns so hue is never the only cue. */

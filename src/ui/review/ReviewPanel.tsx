@@ -21,7 +21,7 @@ import { markersFor, SKY } from './markers';
 import { nextGrade, type DecisionDraft } from './solution';
 import { flagByKey } from './flags';
 import { useReviewSession } from './useReviewSession';
-import { fmtNum, fmtRangeA } from '../format';
+import { fmtNum, fmtRangeA, fmtZ } from '../format';
 
 export interface ReviewHandle {
   /** Run a key action; true when the panel used it. */
@@ -68,6 +68,9 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
           case 'refine':
             void rs.refineShown();
             return true;
+          case 'compare':
+            rs.cycleCompare();
+            return true;
           case 'flag': {
             const f = flagByKey(k);
             if (f) rs.toggle(f.id);
@@ -95,6 +98,10 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
               rs.closeNaming();
               return true;
             }
+            if (rs.compare) {
+              rs.stopCompare();
+              return true;
+            }
             return false;
           default:
             return false;
@@ -108,6 +115,8 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
   const summary = row.summary;
   // A file that could not be read or fitted: its error once, and only what can be done with it (reject it, or remove it from the list).
   const failed = row.status === 'failed' || row.status === 'timeout';
+  const compared = rs.compare ? result?.candidates[rs.compare.index] : undefined;
+  const compareKey = rs.compare ? rs.keyed.indexOf(rs.compare.index) + 1 : 0;
   const specError = spec.kind === 'error' && !(failed && summary?.error && summary.error === spec.message) ? spec.message : null;
 
   return (
@@ -140,6 +149,12 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
         </p>
       )}
 
+      {compared && (
+        <p className="compare-note" data-testid="compare-note">
+          Comparing with candidate {compareKey}: z = {fmtZ(compared.z, 5)} {compared.class} — its model dashed, its lines as ticks from the bottom. <kbd>o</kbd> next,{' '}
+          <kbd>Esc</kbd> off.
+        </p>
+      )}
       <div className="plot-box" ref={plotBox}>
         {spec.kind === 'ready' ? (
           <SpectrumView
@@ -157,6 +172,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
             highlightA={naming?.answer?.feature?.centreA ?? naming?.clickA ?? null}
             resetKey={row.key}
             fluxUnit={spec.spectrum.meta.fluxUnit}
+            compare={compared ? { z: compared.z, markers: markersFor(compared.class), model: rs.compare?.model ?? null } : null}
           />
         ) : spec.kind === 'loading' ? (
           <p className="muted">Opening the spectrum…</p>

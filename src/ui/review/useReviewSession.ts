@@ -98,6 +98,11 @@ export interface ReviewSession {
   pickKey: (n: number) => void;
   /** Show the best candidate of a class. */
   pickClass: (cls: SpectrumClass) => void;
+  /** Candidate index shown beside the solution for comparison, with its model once the worker has it. */
+  compare: { index: number; model: Float64Array | null } | null;
+  /** Next keyed candidate to compare with (not the one shown); after the last, off. */
+  cycleCompare: () => void;
+  stopCompare: () => void;
   /** Refit near the shown z (an explicit step after naming a line or typing a z). */
   refineShown: () => Promise<void>;
   refitAt: (z: number, howSet: 'typed' | 'refit' | 'line', lineId?: { id: string; observedA: number }, doRefine?: boolean) => Promise<void>;
@@ -240,6 +245,39 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
     },
     [result],
   );
+
+  const [compareIndex, setCompareIndex] = useState<number | null>(null);
+  const [compareModel, setCompareModel] = useState<Float64Array | null>(null);
+  const cycleCompare = useCallback(() => {
+    if (!result) return;
+    const others = keyedCandidates(result.candidates).filter((i) => i !== solution?.candidateIndex);
+    if (!others.length) {
+      setMessage('There is no other candidate to compare with.');
+      return;
+    }
+    setCompareIndex((cur) => {
+      const at = cur === null ? -1 : others.indexOf(cur);
+      return at + 1 < others.length ? others[at + 1] : null;
+    });
+  }, [result, solution]);
+  const stopCompare = useCallback(() => setCompareIndex(null), []);
+  const compareCand = compareIndex !== null ? result?.candidates[compareIndex] : undefined;
+  useEffect(() => {
+    setCompareModel(null);
+    if (!compareCand || spec.kind !== 'ready') return;
+    const forKey = key;
+    let stale = false;
+    void review.solutionModel(key, compareCand.z, compareCand.family).then((m) => {
+      if (!stale && alive.current === forKey) setCompareModel(m);
+    });
+    return () => {
+      stale = true;
+    };
+  }, [compareCand, spec.kind, key, review]);
+  // Comparing a candidate with itself says nothing: stop when it becomes the one shown.
+  useEffect(() => {
+    if (compareIndex !== null && solution?.candidateIndex === compareIndex) setCompareIndex(null);
+  }, [compareIndex, solution]);
 
   const pickKey = useCallback(
     (n: number) => {
@@ -429,6 +467,9 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
     pickCandidate,
     pickKey,
     pickClass,
+    compare: compareIndex !== null && compareCand ? { index: compareIndex, model: compareModel } : null,
+    cycleCompare,
+    stopCompare,
     refineShown,
     refitAt,
     nameFeatureAt,

@@ -108,6 +108,18 @@ describe('drawSpectrumFrame(ctx, frame)', () => {
     expect(noBand.rects.some((r) => r.style === SPECTRUM_COLOURS.band)).toBe(false);
   });
 
+  it('draws a compared model in its own colour, beneath the shown model, and only when its length matches', () => {
+    const f = frame(1_000);
+    const ctx = new RecordingContext();
+    drawSpectrumFrame(ctx, { ...f, model: f.series.flux.map((v) => v + 1), compareModel: f.series.flux.map((v) => v - 1) });
+    const styles = ctx.paths.filter((p) => p.op === 'stroke').map((p) => p.style);
+    expect(styles).toContain(SPECTRUM_COLOURS.compare);
+    expect(styles.indexOf(SPECTRUM_COLOURS.compare)).toBeLessThan(styles.indexOf(SPECTRUM_COLOURS.model));
+    const wrong = new RecordingContext();
+    drawSpectrumFrame(wrong, { ...f, compareModel: new Float64Array(10) });
+    expect(wrong.paths.some((p) => p.style === SPECTRUM_COLOURS.compare)).toBe(false);
+  });
+
   it('fills the band per column from the lowest lower edge to the highest upper edge of its samples', () => {
     const f = frame(20_000);
     const ctx = new RecordingContext();

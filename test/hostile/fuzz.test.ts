@@ -16,6 +16,7 @@ import { fitsHeaderBytes, writeBinTableHdu, writeEmptyPrimaryHdu, writeImageHdu 
 import { SpectrumReadError, type Spectrum } from '../../src/core/types';
 import { rawCard } from './corpus';
 import { checkSpectrumInvariants } from './invariants';
+import { joinHdus, splitHdu, type HduParts } from './fitsParts';
 import { IMAGE_WCS, utf8, validArrays, validCsvText, validImageFits, validTableFits } from './validFiles';
 
 /** Pixels of the fuzzed FITS files: small, so one read is fast and mutations hit headers often. */
@@ -48,34 +49,6 @@ function readOrRefuse(bytes: Uint8Array, name: string): Spectrum | null {
 afterAll(() => {
   console.log(`fuzz: ${iterations} inputs read`);
 });
-
-/** One HDU as editable header cards (without END) plus its data blocks. */
-interface HduParts {
-  cards: string[];
-  data: Uint8Array;
-}
-
-/** Split a writer-made HDU into its cards and data (the header ends with the block holding END). */
-function splitHdu(hdu: Uint8Array): HduParts {
-  const cards: string[] = [];
-  for (let o = 0; o < hdu.length; o += 80) {
-    const card = String.fromCharCode(...hdu.subarray(o, o + 80));
-    if (card.startsWith('END ')) return { cards, data: hdu.slice(Math.ceil((o + 80) / 2880) * 2880) };
-    cards.push(card);
-  }
-  throw new Error('no END in a writer-made HDU');
-}
-
-function joinHdus(hdus: HduParts[]): Uint8Array {
-  const parts = hdus.flatMap((h) => [fitsHeaderBytes(h.cards), h.data]);
-  const out = new Uint8Array(parts.reduce((a, p) => a + p.length, 0));
-  let o = 0;
-  for (const p of parts) {
-    out.set(p, o);
-    o += p.length;
-  }
-  return out;
-}
 
 /** The valid files as HDU parts: an image with IVAR extension, a per-row table, a row-of-arrays table. */
 function validHduSets(): HduParts[][] {

@@ -106,3 +106,61 @@ export function validGzipCsv(n = 200): Uint8Array {
 export function validGzipFits(n = 300): Uint8Array {
   return gzipSync(validTableFits(n));
 }
+
+/**
+ * Multi-object files for readSpectra (invented plate 'HX-P1'): a 2-D image of
+ * `rows` fibres with an IVAR image and a fibre table (one sky fibre), a
+ * binary table of one object per row with array columns, and a 3-D cube of
+ * flux / sigma planes named by BANDIDn.
+ */
+export function validMultiObjectFiles(rows = 8, n = 120): { imageRows: Uint8Array; tableRows: Uint8Array; cube: Uint8Array } {
+  const { wavelengthA, flux, ivar } = validArrays(n);
+  const fluxRows = new Float32Array(rows * n);
+  const ivarRows = new Float32Array(rows * n);
+  const waveRows = new Float64Array(rows * n);
+  for (let r = 0; r < rows; r++) {
+    for (let i = 0; i < n; i++) {
+      fluxRows[r * n + i] = flux[i] * (1 + r / 10);
+      ivarRows[r * n + i] = ivar[i];
+      waveRows[r * n + i] = wavelengthA[i] + r;
+    }
+  }
+  const ids = Array.from({ length: rows }, (_, r) => `HX-P1-${r + 1}`);
+  const types = ids.map((_, r) => (r === 2 ? 'SKY' : 'TARGET'));
+  const fibres = writeBinTableHdu({
+    extname: 'FIBRES',
+    nRows: rows,
+    columns: [
+      { name: 'FIBERID', format: 'J', data: Int32Array.from({ length: rows }, (_, r) => r + 1) },
+      { name: 'OBJECT', format: '10A', data: ids },
+      { name: 'OBJTYPE', format: '8A', data: types },
+    ],
+  });
+  const imageRows = writeFitsFile([
+    writeImageHdu({ data: fluxRows, axes: [n, rows], cards: IMAGE_WCS }),
+    writeImageHdu({ data: ivarRows, axes: [n, rows], primary: false, extname: 'IVAR' }),
+    fibres,
+  ]);
+  const tableRows = writeFitsFile([
+    writeEmptyPrimaryHdu(),
+    writeBinTableHdu({
+      extname: 'OBJECTS',
+      nRows: rows,
+      columns: [
+        { name: 'OBJECT', format: '10A', data: ids },
+        { name: 'OBJTYPE', format: '8A', data: types },
+        { name: 'WAVELENGTH', format: `${n}D`, unit: 'Angstrom', data: waveRows },
+        { name: 'FLUX', format: `${n}E`, data: fluxRows },
+        { name: 'IVAR', format: `${n}E`, data: ivarRows },
+      ],
+    }),
+  ]);
+  const cubeData = new Float32Array(2 * rows * n);
+  cubeData.set(fluxRows);
+  cubeData.set(ivarRows.map((v) => 1 / Math.sqrt(v)), rows * n);
+  const cube = writeFitsFile([
+    writeImageHdu({ data: cubeData, axes: [n, rows, 2], cards: [...IMAGE_WCS, ['BANDID1', 'spectrum - extracted'], ['BANDID2', 'sigma - extracted']] }),
+    fibres,
+  ]);
+  return { imageRows, tableRows, cube };
+}

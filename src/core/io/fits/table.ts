@@ -33,7 +33,7 @@ export interface TableColumn {
 /** Bytes per element of each TFORM type letter (X is bits, handled separately). */
 const TYPE_BYTES: Record<string, number> = { L: 1, B: 1, I: 2, J: 4, K: 8, A: 1, E: 4, D: 8, C: 8, M: 16, P: 8, Q: 16 };
 /** Storage type of the numeric letters, as BITPIX. */
-const NUMERIC_BITPIX: Record<string, number> = { B: 8, I: 16, J: 32, K: 64, E: -32, D: -64 };
+export const NUMERIC_BITPIX: Record<string, number> = { B: 8, I: 16, J: 32, K: 64, E: -32, D: -64 };
 
 /** Parse TFIELDS and every TFORMn/TTYPEn/TUNITn/TSCALn/TZEROn/TNULLn; check the row width. */
 export function tableColumns(hdu: FitsHdu, file: string): TableColumn[] {
@@ -90,7 +90,7 @@ export interface SpectrumColumns {
   mask?: TableColumn;
 }
 
-const isNumeric = (c: TableColumn): boolean => c.type in NUMERIC_BITPIX && c.repeat > 0;
+export const isNumeric = (c: TableColumn): boolean => c.type in NUMERIC_BITPIX && c.repeat > 0;
 
 /** The wavelength, flux, uncertainty and mask columns, or what is missing. */
 export function findSpectrumColumns(cols: readonly TableColumn[]): SpectrumColumns | { missing: 'wavelength' | 'flux' } {
@@ -111,6 +111,33 @@ function columnValues(bytes: Uint8Array, hdu: FitsHdu, col: TableColumn, perRow:
   const start = hdu.dataOffset + col.offset;
   const stride = perRow ? hdu.axes[0] : Math.abs(bitpix) / 8;
   return decodeValues(bytes, start, n, bitpix, scaling, stride);
+}
+
+/**
+ * In place: a wavelength column's values to Angstrom (10^x for log10 columns;
+ * TUNITn, or a unit judged from the size of the values). Returns the rule, for
+ * messages. Throws for an unknown TUNITn.
+ */
+export function columnWavelengthsToAngstrom(wl: Float64Array, wave: TableColumn, file: string, hdu: number): string {
+  const n = wl.length;
+  if (wave.role === 'loglam') {
+    for (let i = 0; i < n; i++) wl[i] = 10 ** wl[i];
+    return `column '${wave.name}' (log10 Angstrom)`;
+  }
+  let factor: number;
+  let source: string;
+  if (wave.unit !== '') {
+    const f = unitToAngstrom(wave.unit);
+    if (f === undefined) throw new SpectrumReadError(file, `unknown wavelength unit '${wave.unit}'`, { hdu, keyword: `TUNIT${wave.number}`, column: wave.name });
+    factor = f;
+    source = `TUNIT${wave.number}`;
+  } else {
+    let max = 0;
+    for (let i = 0; i < n; i++) if (Math.abs(wl[i]) > max) max = Math.abs(wl[i]);
+    ({ factor, source } = guessUnitToAngstrom(max));
+  }
+  if (factor !== 1) for (let i = 0; i < n; i++) wl[i] *= factor;
+  return `column '${wave.name}' (${source})`;
 }
 
 /** Read the spectrum in binary table `hdus[index]`. */
@@ -157,26 +184,7 @@ export function readTable(bytes: Uint8Array, file: string, hdus: readonly FitsHd
   }
 
   const wl = columnValues(bytes, hdu, wave, perRow, n);
-  let rule: string;
-  if (wave.role === 'loglam') {
-    for (let i = 0; i < n; i++) wl[i] = 10 ** wl[i];
-    rule = `column '${wave.name}' (log10 Angstrom)`;
-  } else {
-    let factor: number;
-    let source: string;
-    if (wave.unit !== '') {
-      const f = unitToAngstrom(wave.unit);
-      if (f === undefined) throw new SpectrumReadError(file, `unknown wavelength unit '${wave.unit}'`, { hdu: hdu.index, keyword: `TUNIT${wave.number}`, column: wave.name });
-      factor = f;
-      source = `TUNIT${wave.number}`;
-    } else {
-      let max = 0;
-      for (let i = 0; i < n; i++) if (Math.abs(wl[i]) > max) max = Math.abs(wl[i]);
-      ({ factor, source } = guessUnitToAngstrom(max));
-    }
-    if (factor !== 1) for (let i = 0; i < n; i++) wl[i] *= factor;
-    rule = `column '${wave.name}' (${source})`;
-  }
+  const rule = columnWavelengthsToAngstrom(wl, wave, file, hdu.index);
   // Vacuum unless the column name or a header keyword (VACUUM = F, AIRORVAC = 'air') says air.
   const air = wave.role === 'wave-air' || headerSaysAir(h) || (index > 0 && headerSaysAir(hdus[0].header));
 

@@ -1,90 +1,125 @@
 /**
- * Calibrate the machine confidence (src/core/engine/confidence.ts) on
- * simulated spectra: fit every spectrum of a seeded batch, record the inputs
- * of the score and whether the redshift is right (|dz|/(1+z) <= 0.01), fit the
- * logistic coefficients by iteratively reweighted least squares, and report
- * the wrong-redshift rate of each grade for the thresholds in confidence.ts.
+ * Calibrate the machine confidence (src/core/engine/confidence.ts) on the
+ * three sources of scripts/lib/sources.ts: fit every spectrum, record the
+ * score's inputs and whether z is right (|dz|/(1+z) < 0.003), fit the
+ * logistic coefficients by iteratively reweighted least squares, and check
+ * them by 5-fold cross-validation: out-of-fold reliability per source, and
+ * the rate of wrong (> 0.01) 'high' grades per source for candidate
+ * thresholds. Prints the coefficients to copy into confidence.ts.
  *
- *   npx tsx scripts/calibrate-confidence.ts [n=600] [seed=7]
+ *   npx tsx scripts/calibrate-confidence.ts [--sim 600] [--held 400] [--seed 11]
  */
-import { simulateBatch } from '../src/core/sim';
-import { fitSpectrumDetailed } from '../src/core/engine/fitSpectrum';
-import { confidenceFeatures, gradeOf, scoreFromFeatures } from '../src/core/engine/confidence';
+import { writeFileSync, mkdirSync } from 'node:fs';
+import { confidenceFeatures, confidenceInputOf, FEATURE_NAMES } from '../src/core/engine/confidence';
+import { heldOutItems, realItems, simulatorItems, type EvalItem, type SourceId } from './lib/sources';
 
-export interface CalibrationRow {
+const arg = (name: string, dflt: number) => {
+  const k = process.argv.indexOf(`--${name}`);
+  return k > 0 ? Number(process.argv[k + 1]) : dflt;
+};
+const seed = arg('seed', 11);
+
+interface Row {
+  source: SourceId;
   x: number[];
   right: boolean;
-  cls: string;
-  trueClass: string;
+  wrong: boolean;
+  usable: boolean;
 }
 
-export function collectRows(n: number, seed: number): CalibrationRow[] {
-  const rows: CalibrationRow[] = [];
-  for (const sim of simulateBatch(n, seed)) {
-    const { result: r, featureSnrs } = fitSpectrumDetailed(sim.spectrum, { measureLines: false });
-    if (r.status !== 'ok') continue;
-    const right = Math.abs(r.z - sim.truth.z) / (1 + sim.truth.z) <= 0.01;
-    const best = r.candidates[0];
-    rows.push({
-      x: confidenceFeatures({ cls: r.class, chi2Gap: r.chi2Gap, nFeatures: r.nFeatures, featureSnrs, atEdge: best?.atEdge ?? false }),
-      right,
-      cls: r.class,
-      trueClass: sim.truth.class,
-    });
-  }
-  return rows;
+function rowOf(it: EvalItem): Row {
+  const r = it.detail.result;
+  const d = Math.abs(r.z - it.trueZ) / (1 + it.trueZ);
+  const inp = confidenceInputOf(r, it.detail.featureSnrs);
+  return { source: it.source, x: confidenceFeatures(inp), right: r.status === 'ok' && d < 0.003, wrong: !(d <= 0.01), usable: r.status === 'ok' && r.class !== 'unknown' };
 }
 
-/** Logistic regression by IRLS (Newton's method), with a small ridge for stability. */
-export function fitLogistic(rows: CalibrationRow[], iterations = 30): number[] {
-  const d = rows[0].x.length + 1;
-  const beta = new Array(d).fill(0);
-  for (let it = 0; it < iterations; it++) {
-    const H = Array.from({ length: d }, () => new Array(d).fill(0));
-    const g = new Array(d).fill(0);
-    for (const r of rows) {
-      const v = [1, ...r.x];
-      const t = v.reduce((s, x, k) => s + x * beta[k], 0);
-      const p = 1 / (1 + Math.exp(-t));
-      const y = r.right ? 1 : 0;
-      for (let a = 0; a < d; a++) {
-        g[a] += (y - p) * v[a];
-        for (let b = 0; b < d; b++) H[a][b] += p * (1 - p) * v[a] * v[b];
+const t0 = performance.now();
+const items = [...simulatorItems(arg('sim', 600), seed, { measureLines: true }), ...heldOutItems(arg('held', 400), seed), ...realItems()];
+console.log(`fitted ${items.length} spectra in ${((performance.now() - t0) / 1000).toFixed(0)} s`);
+const rows = items.map(rowOf).filter((r) => r.usable);
+mkdirSync('test-artifacts', { recursive: true });
+writeFileSync('test-artifacts/calibration-rows.json', JSON.stringify(rows));
+
+/** Logistic regression by IRLS with a small ridge (intercept unpenalised). */
+function fitLogistic(rs: Row[], ridge = 1e-2): number[] {
+  const p = rs[0].x.length + 1;
+  let b = new Array(p).fill(0);
+  for (let it = 0; it < 50; it++) {
+    const H = Array.from({ length: p }, () => new Array(p).fill(0));
+    const g = new Array(p).fill(0);
+    for (const r of rs) {
+      const xi = [1, ...r.x];
+      const eta = xi.reduce((s, v, k) => s + v * b[k], 0);
+      const mu = 1 / (1 + Math.exp(-eta));
+      const w = Math.max(1e-9, mu * (1 - mu));
+      for (let a = 0; a < p; a++) {
+        g[a] += xi[a] * ((r.right ? 1 : 0) - mu);
+        for (let c = 0; c < p; c++) H[a][c] += w * xi[a] * xi[c];
       }
     }
-    for (let a = 0; a < d; a++) H[a][a] += 1e-3;
-    // solve H delta = g (Gaussian elimination)
-    const A = H.map((row, a) => [...row, g[a]]);
-    for (let c = 0; c < d; c++) {
-      let piv = c;
-      for (let r = c + 1; r < d; r++) if (Math.abs(A[r][c]) > Math.abs(A[piv][c])) piv = r;
-      [A[c], A[piv]] = [A[piv], A[c]];
-      for (let r = 0; r < d; r++) {
-        if (r === c) continue;
-        const f = A[r][c] / A[c][c];
-        for (let k = c; k <= d; k++) A[r][k] -= f * A[c][k];
-      }
+    for (let a = 1; a < p; a++) {
+      H[a][a] += ridge;
+      g[a] -= ridge * b[a];
     }
-    for (let a = 0; a < d; a++) beta[a] += A[a][d] / A[a][a];
+    const step = solve(H, g);
+    b = b.map((v, k) => v + step[k]);
+    if (Math.max(...step.map(Math.abs)) < 1e-8) break;
   }
-  return beta;
+  return b;
 }
 
-function main() {
-  const n = Number(process.argv[2] ?? 600);
-  const seed = Number(process.argv[3] ?? 7);
-  const rows = collectRows(n, seed);
-  const usable = rows.filter((r) => r.cls !== 'unknown');
-  console.log(`${rows.length} fitted, ${usable.length} with a class; right: ${usable.filter((r) => r.right).length}`);
-  console.log('logistic coefficients [B0, B_GAP, B_FEAT, B_SNR]:', fitLogistic(usable).map((b) => b.toFixed(3)).join(', '));
-  const byGrade: Record<string, [number, number]> = {};
-  for (const r of rows) {
-    const g = r.cls === 'unknown' ? 'none' : gradeOf(scoreFromFeatures(r.x), r.x);
-    const e = (byGrade[g] ??= [0, 0]);
-    e[0]++;
-    if (!r.right) e[1]++;
+function solve(A: number[][], y: number[]): number[] {
+  const n = y.length;
+  const M = A.map((r, i) => [...r, y[i]]);
+  for (let c = 0; c < n; c++) {
+    let piv = c;
+    for (let r = c + 1; r < n; r++) if (Math.abs(M[r][c]) > Math.abs(M[piv][c])) piv = r;
+    [M[c], M[piv]] = [M[piv], M[c]];
+    for (let r = 0; r < n; r++) {
+      if (r === c) continue;
+      const f = M[r][c] / M[c][c];
+      for (let k = c; k <= n; k++) M[r][k] -= f * M[c][k];
+    }
   }
-  for (const [g, [k, wrong]] of Object.entries(byGrade)) console.log(`${g}: ${k} spectra, ${wrong} wrong (${((100 * wrong) / k).toFixed(2)}%)`);
+  return M.map((r, i) => r[n] / r[i]);
 }
 
-if (process.argv[1] && process.argv[1].endsWith('calibrate-confidence.ts')) main();
+const score = (b: number[], x: number[]) => 1 / (1 + Math.exp(-(b[0] + x.reduce((s, v, k) => s + v * b[k + 1], 0))));
+
+// 5-fold cross-validation, folds interleaved within each source
+const oof = new Array(rows.length).fill(NaN);
+for (let f = 0; f < 5; f++) {
+  const train = rows.filter((_, i) => i % 5 !== f);
+  const b = fitLogistic(train);
+  rows.forEach((r, i) => {
+    if (i % 5 === f) oof[i] = score(b, r.x);
+  });
+}
+const sources: SourceId[] = ['simulator', 'held-out', 'real'];
+console.log('\nout-of-fold reliability (score bin: mean score / fraction right, n)');
+for (const s of sources) {
+  const idx = rows.map((r, i) => i).filter((i) => rows[i].source === s);
+  const bins = [0, 0.2, 0.4, 0.6, 0.8, 0.9, 0.95, 1.0001];
+  const parts: string[] = [];
+  for (let k = 0; k + 1 < bins.length; k++) {
+    const inBin = idx.filter((i) => oof[i] >= bins[k] && oof[i] < bins[k + 1]);
+    if (!inBin.length) continue;
+    const ms = inBin.reduce((a, i) => a + oof[i], 0) / inBin.length;
+    const fr = inBin.filter((i) => rows[i].right).length / inBin.length;
+    parts.push(`[${bins[k]}-${Math.min(1, bins[k + 1])}] ${ms.toFixed(2)}/${fr.toFixed(2)} n=${inBin.length}`);
+  }
+  console.log(`  ${s.padEnd(10)} ${parts.join('  ')}`);
+}
+console.log('\nout-of-fold wrong (> 0.01) rate of a high grade at threshold t (needs 2 features):');
+for (const t of [0.9, 0.93, 0.95, 0.97, 0.98, 0.99]) {
+  const parts = sources.map((s) => {
+    const hi = rows.map((r, i) => i).filter((i) => rows[i].source === s && oof[i] >= t && rows[i].x[1] >= 2);
+    const w = hi.filter((i) => rows[i].wrong).length;
+    return `${s} ${w}/${hi.length} (${((100 * w) / Math.max(1, hi.length)).toFixed(1)}%)`;
+  });
+  console.log(`  t=${t}: ${parts.join('   ')}`);
+}
+const b = fitLogistic(rows);
+console.log(`\ncoefficients on all ${rows.length} rows [intercept, ${FEATURE_NAMES.join(', ')}]:`);
+console.log(`  [${b.map((v) => v.toFixed(3)).join(', ')}]`);

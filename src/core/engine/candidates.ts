@@ -14,7 +14,11 @@ import { dzPerPixel, pixelsOfVelocity, shiftOfZ, zOfShift, DLOG10 } from './logG
 import { parabolaVertex } from './parabola';
 import { refineOnFine } from './refine';
 import type { FamilyScan } from './scan';
-import type { WeightedData } from './scanData';
+import { weightedData, type WeightedData } from './scanData';
+import type { GridData } from './prepare';
+import { restWavelengthA } from '../lines/catalogue';
+
+const LYA_A = restWavelengthA('LyA');
 import type { FitWorkspace } from './workspace';
 
 /** Minimum velocity separation of distinct solutions, km/s: broad quasar valleys are thousands of km/s wide. */
@@ -106,15 +110,41 @@ function reducedChi2(fit: ModelFit, nGood: number): number {
  * held as one vector, walked to the chi2 minimum (refine.ts). z error from
  * the curvature, scaled by the square root of the reduced chi2 when above 1.
  */
-export function refineCandidate(fine: WeightedData, c: ScoredCandidate): ScoredCandidate {
+export function refineCandidate(fineGrid: GridData, fine: WeightedData, c: ScoredCandidate): ScoredCandidate {
   const f = c.family;
   const combined = combination(f.vectors, c.fit.amplitudes);
-  const m = refineOnFine(fine, combined, f.kStart, c.fineShift, c.range.lo, c.range.hi);
+  const dataAt = f.class === 'qso' ? (s: number) => withForestVariance(fineGrid, combined, f.kStart, s, fine.q.length) : () => fine;
+  const m = refineOnFine(dataAt, combined, f.kStart, c.fineShift, c.range.lo, c.range.hi);
+  if (!Number.isFinite(m.sigmaShift)) return c; // no curvature on the fine grid: keep the scan's estimate
   const z = zOfShift(m.shift, DLOG10);
   const red = Math.max(1, m.chi2 / Math.max(1, fine.nGood - c.fit.nParams));
   const zErr = m.sigmaShift * dzPerPixel(z, DLOG10) * Math.sqrt(red);
   const atEdge = (c.range.edgeLo && m.shift <= c.range.lo + 1) || (c.range.edgeHi && m.shift >= c.range.hi - 1);
   return { ...c, z, zErr, fineShift: m.shift, atEdge, refined: true };
+}
+
+/**
+ * RMS of the Lyman-alpha forest's transmitted flux about its mean, as a
+ * fraction of the continuum, at the resolution of survey spectra (~0.3 at
+ * z ~ 2-3; from memory of forest flux statistics). Blueward of Ly-alpha the
+ * forest is noise the template cannot follow: without this term its pixels
+ * dominate a quasar's chi2 and pull z by about 1000 km/s.
+ */
+export const FOREST_FLUX_RMS = 0.3;
+
+/** Fine data with the forest's variance added blueward of Ly-alpha for a quasar template at shift s. */
+function withForestVariance(fine: GridData, combined: Float64Array, kStart: number, s: number, P: number): WeightedData {
+  const kLya = Math.log10(LYA_A) / DLOG10;
+  const ivar = Float64Array.from(fine.ivar);
+  const f2 = FOREST_FLUX_RMS * FOREST_FLUX_RMS;
+  for (let i = 0; i < ivar.length; i++) {
+    const t = fine.k0 + i - s - kStart;
+    if (t + kStart >= kLya) break;
+    if (!(ivar[i] > 0) || t < 0 || t >= combined.length) continue;
+    const c = Math.max(0, combined[t]);
+    ivar[i] = 1 / (1 / ivar[i] + f2 * c * c);
+  }
+  return weightedData({ k0: fine.k0, flux: fine.flux, ivar }, 1, P, false);
 }
 
 /** Fine shift range of a family (whole pixels), capped at zMax. */

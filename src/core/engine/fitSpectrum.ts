@@ -34,12 +34,13 @@ export const MINIMA_PER_FAMILY = 3;
 /** Candidates refined on the fine grid: the best few by rank, plus the best of every class. */
 export const REFINE_TOP = 3;
 /**
- * Fine pixels per scan pixel by class: quasars 6 (414 km/s; broad lines are
- * >= 2000 km/s wide, and their 0 < z < 6.5 range is the longest), the others
- * SCAN_BINNING. Every candidate is then scored on the SCAN_BINNING data.
+ * Fine pixels per scan pixel by class: quasars 8 (552 km/s; broad lines are
+ * >= 2000 km/s wide, and 8 keeps their long 0 < z < 6.5 scan in 2048-point
+ * FFTs), the others SCAN_BINNING. Every candidate is then scored on the
+ * SCAN_BINNING data.
  */
 export function scanBinningOf(cls: SpectrumClass): number {
-  return cls === 'qso' ? 6 : SCAN_BINNING;
+  return cls === 'qso' ? 8 : SCAN_BINNING;
 }
 /** Largest number of points per chi-square curve. */
 export const CURVE_MAX_POINTS = 1500;
@@ -136,7 +137,7 @@ function refineBest(p: Prepared, ranked: Ranked[]): Ranked[] {
   return ranked.map((r, i) => {
     const first = !seen.has(r.c.family.class);
     seen.add(r.c.family.class);
-    return i < REFINE_TOP || first ? { c: refineCandidate(p.fine, r.c), rank: r.rank } : r;
+    return i < REFINE_TOP || first ? { c: refineCandidate(p.data.fine, p.fine, r.c), rank: r.rank } : r;
   });
 }
 
@@ -222,7 +223,7 @@ function assemble(spectrum: Spectrum, p: Prepared, ranked: Ranked[], scale: numb
     }
   }
   const feats = countFeatures(lines);
-  const confIn = { cls, chi2Gap, nFeatures: feats.n, featureSnrs: feats.snrs, atEdge: best.c.atEdge };
+  const confIn = { cls, chi2Gap, nFeatures: feats.n, featureSnrs: feats.snrs, atEdge: best.c.atEdge, medianSnr: p.data.medianSnr };
   const score = confidenceScore(confIn);
   const bestC = withFloor(best.c, p.input.lambdaMinA, p.input.lambdaMaxA);
   const dofOf = (c: ScoredCandidate) => Math.max(1, p.scanData.nGood - c.fit.nParams);

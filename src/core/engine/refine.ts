@@ -23,13 +23,14 @@ export interface FineMinimum {
   atEdge: boolean;
 }
 
-export function refineOnFine(fine: WeightedData, combined: Float64Array, kStart: number, start: number, lo: number, hi: number): FineMinimum {
+/** dataAt(shift): the fine data with the weights that hold at that shift (the same object for most families). */
+export function refineOnFine(dataAt: (shift: number) => WeightedData, combined: Float64Array, kStart: number, start: number, lo: number, hi: number): FineMinimum {
   const cache = new Map<number, number>();
   const at = (s: number): number => {
     if (s < lo || s > hi) return Infinity;
     let c = cache.get(s);
     if (c === undefined) {
-      c = evaluateAt(fine, [combined], kStart, [false], s).chi2;
+      c = evaluateAt(dataAt(s), [combined], kStart, [false], s).chi2;
       cache.set(s, c);
     }
     return c;

@@ -4,13 +4,9 @@ import { buildGalaxyFamily, buildQsoFamily, buildStarFamily, type FamilyBasis } 
 
 export function buildAllFamilies(tables: TemplateTable[], exclude: ReadonlySet<string> = new Set()): FamilyBasis[] {
   const use = tables.filter((t) => !exclude.has(t.name));
-  const byName = (n: string) => {
-    const t = use.find((x) => x.name === n);
-    if (!t) throw new Error(`published template ${n} is missing`);
-    return t;
-  };
+  const maybe = (n: string) => use.find((x) => x.name === n) ?? null;
   return [
-    buildQsoFamily(byName('vandenberk2001_sdss_median_composite'), byName('selsing2016_xshooter_composite')),
+    buildQsoFamily(maybe('vandenberk2001_sdss_median_composite'), maybe('selsing2016_xshooter_composite')),
     buildGalaxyFamily(use.filter((t) => t.name.startsWith('kc96_') || t.name.startsWith('bc03_'))),
     buildStarFamily(use.filter((t) => t.name.startsWith('pickles_'))),
   ];

@@ -50,21 +50,26 @@ export const GALAXY_Z_MIN = STAR_VMAX_KMS / C_KMS;
 
 /** Stellar eigenspectra kept: Pickles spectra are R ~ 500, coarser than survey data, so keep many (14 hold > 99.9 % of the library's sum of squares). */
 export const STAR_EIGEN = 14;
-/** Of those, the fast scan uses the first few; every candidate is then scored with all. */
-export const STAR_SCAN_EIGEN = 6;
+/** Of those, the fast scan uses the first few (it only has to find the velocity within +-1000 km/s); every candidate is then scored with all. */
+export const STAR_SCAN_EIGEN = 4;
 
 export function buildStarFamily(stars: TemplateTable[]): FamilyBasis {
   const kLo = kOf(3000);
   const kHi = kOf(11000);
   const spectra = stars.map((t) => normaliseMean(extendEnds(toLogGrid(t.wavelengthA, t.flux, kLo, kHi))));
   const eig = eigenspectra(spectra, STAR_EIGEN);
+  const n = kHi - kLo + 1;
+  // Chromospheric Balmer emission of active M dwarfs (flatter decrement than
+  // nebular case B; relative strengths typical, from memory): without it an
+  // active star's H-alpha is best explained as a galaxy's [O II].
+  const active = emissionLines(n, kLo, [['Halpha', 1], ['Hbeta', 0.6], ['Hgam', 0.4], ['Hdel', 0.3]].map(([id, f]) => [restWavelengthA(id as string), f as number]), NEBULAR_FWHM_KMS);
   return {
     id: 'star',
     class: 'star',
     zMin: -STAR_VMAX_KMS / C_KMS,
     zMax: STAR_VMAX_KMS / C_KMS,
     kStart: kLo,
-    vectors: eig.vectors.map((v, i) => ({ id: `star eigen ${i + 1}`, values: v, nonNegative: false })),
+    vectors: [...eig.vectors.map((v, i) => ({ id: `star eigen ${i + 1}`, values: v, nonNegative: false })), { id: 'Balmer emission', values: active, nonNegative: true }],
     scan: eig.vectors.slice(0, STAR_SCAN_EIGEN).map((_, i) => ({ id: `star eigen ${i + 1}`, weights: { [`star eigen ${i + 1}`]: 1 } })),
     sources: stars.map((t) => t.name),
     heldFraction: eig.fractions.reduce((a, b) => a + b, 0),
@@ -127,10 +132,16 @@ export function buildGalaxyFamily(galaxies: TemplateTable[]): FamilyBasis {
   // (Storey & Zeippen 2000, MNRAS 312, 813); Balmer decrement of case B,
   // Ha/Hb = 2.86 (Osterbrock & Ferland 2006, from memory); [S II] and [O I]
   // typical of H II regions (from memory).
+  // Two non-negative vectors span a cone: any mix of them has a ratio between
+  // theirs, so a ratio can vary within its physical range and no further.
+  // [O II] 3730/3727 runs from 0.35 (dense gas) to 1.5 (the low-density limit),
+  // H-alpha/H-beta from case B (2.86) to a dust-reddened 6 (Osterbrock &
+  // Ferland 2006, from memory; H-gamma and H-delta follow the same reddening, roughly).
   const emission: BasisVectorData[] = [
-    { id: '[O II] 3727', values: line([['OII_3727', 1]]), nonNegative: true },
-    { id: '[O II] 3730', values: line([['OII_3730', 1]]), nonNegative: true },
-    { id: 'Balmer', values: line([['Halpha', 2.86], ['Hbeta', 1], ['Hgam', 0.47], ['Hdel', 0.26], ['Heps', 0.16]]), nonNegative: true },
+    { id: '[O II] dense', values: line([['OII_3727', 1], ['OII_3730', 0.35]]), nonNegative: true },
+    { id: '[O II] low density', values: line([['OII_3727', 1], ['OII_3730', 1.5]]), nonNegative: true },
+    { id: 'Balmer case B', values: line([['Halpha', 2.86], ['Hbeta', 1], ['Hgam', 0.47], ['Hdel', 0.26], ['Heps', 0.16]]), nonNegative: true },
+    { id: 'Balmer reddened', values: line([['Halpha', 6], ['Hbeta', 1], ['Hgam', 0.38], ['Hdel', 0.18], ['Heps', 0.1]]), nonNegative: true },
     { id: '[O III]', values: line([['OIII_5008', 2.98], ['OIII_4960', 1], ['NeIII', 0.3]]), nonNegative: true },
     { id: '[N II]+[S II]', values: line([['NII_6585', 3.05], ['NII_6550', 1], ['SII_6718', 1.2], ['SII_6733', 0.9], ['OI_6302', 0.2]]), nonNegative: true },
   ];
@@ -145,8 +156,8 @@ export function buildGalaxyFamily(galaxies: TemplateTable[]): FamilyBasis {
     scan: [
       ...eigenIds.slice(0, GALAXY_SCAN_EIGEN).map((id) => ({ id, weights: { [id]: 1 } })),
       // [O II] at a ratio of 1.4 (3730/3727 ~ 1.4 at low density, from memory); then the other nebular groups at typical strengths.
-      { id: '[O II]', weights: { '[O II] 3727': 1, '[O II] 3730': 1.4 } },
-      { id: 'nebular', weights: { Balmer: 1, '[O III]': 0.5, '[N II]+[S II]': 0.5 } },
+      { id: '[O II]', weights: { '[O II] low density': 1 } },
+      { id: 'nebular', weights: { 'Balmer case B': 1, '[O III]': 0.5, '[N II]+[S II]': 0.5 } },
     ],
     sources: galaxies.map((t) => t.name),
     heldFraction: eig.fractions.reduce((a, b) => a + b, 0),
@@ -174,12 +185,22 @@ const LYA_A = restWavelengthA('LyA');
 /** Stitch point of the two composites (Vanden Berk below: it reaches 800 A; Selsing above: little host light). */
 const STITCH_A = 2600;
 
-export function buildQsoFamily(vandenBerk: TemplateTable, selsing: TemplateTable): FamilyBasis {
+/** Either composite may be left out (held-out tests): the other then serves the whole range. */
+/**
+ * host: the galaxy family's first eigenspectrum (a mean galaxy) on its own
+ * grid: low-redshift quasars show their host's starlight (Vanden Berk et
+ * al. 2001 note it in their composite), and without it a broad-line AGN in a
+ * bright host is fitted better by a galaxy.
+ */
+export function buildQsoFamily(vandenBerkIn: TemplateTable | null, selsingIn: TemplateTable | null, host?: { kStart: number; values: Float64Array }): FamilyBasis {
   const kLo = kOf(800);
   const kHi = kOf(11000);
   const n = kHi - kLo + 1;
-  const vdb = toLogGrid(vandenBerk.wavelengthA, vandenBerk.flux, kLo, kHi);
-  const sel = interpolateGaps(toLogGrid(selsing.wavelengthA, selsing.flux, kLo, kHi));
+  const vandenBerk = vandenBerkIn ?? selsingIn;
+  const selsing = selsingIn ?? vandenBerkIn;
+  if (!vandenBerk || !selsing) throw new Error('the quasar family needs at least one composite');
+  const vdb = extendEnds(interpolateGaps(toLogGrid(vandenBerk.wavelengthA, vandenBerk.flux, kLo, kHi)));
+  const sel = extendEnds(interpolateGaps(toLogGrid(selsing.wavelengthA, selsing.flux, kLo, kHi)));
   const kS = kOf(STITCH_A) - kLo;
   // scale Selsing to Vanden Berk over 2500-2700 A (ratio of sums)
   let a = 0;
@@ -193,14 +214,32 @@ export function buildQsoFamily(vandenBerk: TemplateTable, selsing: TemplateTable
   const composite = normaliseMean(extendEnds(interpolateGaps(mean)));
   const continuum = lowerEnvelope(composite, 150, 50);
   const lines = composite.map((v, j) => v - continuum[j]);
-  const groups: BasisVectorData[] = QSO_GROUPS.map((g) => ({ id: g.id, values: windowed(lines, kLo, g.fromA, g.toA), nonNegative: false }));
+  // Lines can be stronger than the composite's, never absent or inverted: a
+  // quasar is defined by its broad lines (docs/reference.md sec. 6), and a
+  // signed line amplitude would let the family cancel them and fit any
+  // break-like continuum (a galaxy's 4000 A break as the forest edge).
+  const groups: BasisVectorData[] = QSO_GROUPS.map((g) => ({ id: g.id, values: windowed(lines, kLo, g.fromA, g.toA), nonNegative: true }));
   const civ = groups[2].values;
   // A velocity shift of the C IV group to first order: v/c * dL/dln(lambda) (high-ionisation lines
   // are blueshifted by 0 to > 2000 km/s, Richards et al. 2002, AJ 124, 1).
   const civShift = new Float64Array(n);
   for (let j = 1; j < n - 1; j++) civShift[j] = (civ[j + 1] - civ[j - 1]) / 2;
-  const forest = composite.map((v, j) => (Math.pow(10, (kLo + j) * DLOG10) < LYA_A ? v : 0));
+  // Forest absorption: the composite blueward of Ly-alpha taken away (amplitude >= 0), so the
+  // mean transmission of any redshift is reachable but flux is never added there.
+  const forest = composite.map((v, j) => (Math.pow(10, (kLo + j) * DLOG10) < LYA_A ? -v : 0));
   const groupIds = QSO_GROUPS.map((g) => g.id);
+  const hostVectors: BasisVectorData[] = [];
+  if (host) {
+    // on the quasar grid, faded in over 2500-3500 A (a host's ultraviolet light is negligible next to a quasar's)
+    const v = new Float64Array(n);
+    for (let j = 0; j < n; j++) {
+      const h = host.values[kLo + j - host.kStart];
+      if (h === undefined) continue;
+      const lam = Math.pow(10, (kLo + j) * DLOG10);
+      v[j] = h * Math.min(1, Math.max(0, (lam - 2500) / 1000));
+    }
+    hostVectors.push({ id: 'host galaxy', values: v, nonNegative: true });
+  }
   return {
     id: 'qso',
     class: 'qso',
@@ -208,17 +247,18 @@ export function buildQsoFamily(vandenBerk: TemplateTable, selsing: TemplateTable
     zMax: 6.5,
     kStart: kLo,
     vectors: [
-      { id: 'composite', values: composite, nonNegative: false },
-      { id: 'forest', values: forest, nonNegative: false },
+      { id: 'composite', values: composite, nonNegative: true },
+      { id: 'forest absorption', values: forest, nonNegative: true },
       ...groups,
       { id: 'C IV shift', values: civShift, nonNegative: false },
+      ...hostVectors,
     ],
     scan: [
       { id: 'composite', weights: { composite: 1 } },
-      { id: 'forest', weights: { forest: 1 } },
+      { id: 'forest absorption', weights: { 'forest absorption': 1 } },
       { id: 'broad lines', weights: Object.fromEntries(groupIds.map((id) => [id, 1])) },
     ],
-    sources: [vandenBerk.name, selsing.name],
+    sources: [...new Set([vandenBerk.name, selsing.name])],
     heldFraction: 1,
   };
 }

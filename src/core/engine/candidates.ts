@@ -15,6 +15,7 @@ import { parabolaVertex } from './parabola';
 import { refineOnFine } from './refine';
 import type { FamilyScan } from './scan';
 import { weightedData, type WeightedData } from './scanData';
+import { polyBasis } from './polynomial';
 import type { GridData } from './prepare';
 import { restWavelengthA } from '../lines/catalogue';
 
@@ -113,7 +114,8 @@ function reducedChi2(fit: ModelFit, nGood: number): number {
 export function refineCandidate(fineGrid: GridData, fine: WeightedData, c: ScoredCandidate): ScoredCandidate {
   const f = c.family;
   const combined = combination(f.vectors, c.fit.amplitudes);
-  const dataAt = f.class === 'qso' ? (s: number) => withForestVariance(fineGrid, combined, f.kStart, s, fine.q.length) : () => fine;
+  const raw = f.class === 'qso' ? polyBasis(fineGrid.flux.length, fine.q.length) : [];
+  const dataAt = f.class === 'qso' ? (s: number) => withForestVariance(fineGrid, combined, f.kStart, s, fine.q.length, raw) : () => fine;
   const m = refineOnFine(dataAt, combined, f.kStart, c.fineShift, c.range.lo, c.range.hi);
   if (!Number.isFinite(m.sigmaShift)) return c; // no curvature on the fine grid: keep the scan's estimate
   const z = zOfShift(m.shift, DLOG10);
@@ -133,7 +135,7 @@ export function refineCandidate(fineGrid: GridData, fine: WeightedData, c: Score
 export const FOREST_FLUX_RMS = 0.3;
 
 /** Fine data with the forest's variance added blueward of Ly-alpha for a quasar template at shift s. */
-function withForestVariance(fine: GridData, combined: Float64Array, kStart: number, s: number, P: number): WeightedData {
+function withForestVariance(fine: GridData, combined: Float64Array, kStart: number, s: number, P: number, raw: Float64Array[]): WeightedData {
   const kLya = Math.log10(LYA_A) / DLOG10;
   const ivar = Float64Array.from(fine.ivar);
   const f2 = FOREST_FLUX_RMS * FOREST_FLUX_RMS;
@@ -144,7 +146,7 @@ function withForestVariance(fine: GridData, combined: Float64Array, kStart: numb
     const c = Math.max(0, combined[t]);
     ivar[i] = 1 / (1 / ivar[i] + f2 * c * c);
   }
-  return weightedData({ k0: fine.k0, flux: fine.flux, ivar }, 1, P, false);
+  return weightedData({ k0: fine.k0, flux: fine.flux, ivar }, 1, P, false, raw);
 }
 
 /** Fine shift range of a family (whole pixels), capped at zMax. */

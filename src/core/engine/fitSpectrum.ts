@@ -31,8 +31,8 @@ import { withFloor } from './errorFloor';
 export const DEFAULT_POLY_TERMS = 5;
 /** Scan minima scored per family. */
 export const MINIMA_PER_FAMILY = 3;
-/** Candidates refined on the fine grid: the best few by rank, plus the best of every class. */
-export const REFINE_TOP = 3;
+/** Candidates refined on the fine grid: the best REFINE_TOP by rank (the solution and its runner-up), plus the best of every class. */
+export const REFINE_TOP = 2;
 /**
  * Fine pixels per scan pixel by class: quasars 8 (552 km/s; broad lines are
  * >= 2000 km/s wide, and 8 keeps their long 0 < z < 6.5 scan in 2048-point

@@ -28,21 +28,23 @@ export function polyBasis(n: number, P: number): Float64Array[] {
  * Gram-Schmidt). Terms that are degenerate under the weights (too few good
  * pixels) are dropped, so fewer than P may come back.
  */
-export function weightedOrthonormalPolys(w: Float64Array, P: number): Float64Array[] {
-  const raw = polyBasis(w.length, P);
+export function weightedOrthonormalPolys(w: Float64Array, P: number, raw: Float64Array[] = polyBasis(w.length, P)): Float64Array[] {
   const out: Float64Array[] = [];
-  for (const v of raw) {
+  const n = w.length;
+  for (const v of raw.slice(0, P)) {
     const u = Float64Array.from(v);
     for (const q of out) {
       let d = 0;
-      for (let i = 0; i < u.length; i++) d += w[i] * u[i] * q[i];
-      for (let i = 0; i < u.length; i++) u[i] -= d * q[i];
+      for (let i = 0; i < n; i++) if (w[i] > 0) d += w[i] * u[i] * q[i];
+      for (let i = 0; i < n; i++) u[i] -= d * q[i];
     }
     let nn = 0;
     let raw2 = 0;
-    for (let i = 0; i < u.length; i++) {
-      nn += w[i] * u[i] * u[i];
-      raw2 += w[i] * v[i] * v[i];
+    for (let i = 0; i < n; i++) {
+      const wi = w[i];
+      if (!(wi > 0)) continue;
+      nn += wi * u[i] * u[i];
+      raw2 += wi * v[i] * v[i];
     }
     if (!(nn > 1e-10 * raw2)) continue;
     const s = 1 / Math.sqrt(nn);

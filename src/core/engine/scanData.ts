@@ -26,7 +26,8 @@ export interface WeightedData extends ScanData {
 }
 
 /** `windowed`: pad to WINDOW_A (scan data); otherwise the data's own span (fine refinement). */
-export function weightedData(d: GridData, binning: number, P: number, windowed: boolean): WeightedData {
+/** rawPolys: Legendre basis over d.flux.length pixels (polyBasis), when the caller has it already. */
+export function weightedData(d: GridData, binning: number, P: number, windowed: boolean, rawPolys?: Float64Array[]): WeightedData {
   let d0 = d.k0;
   let end = d.k0 + d.flux.length - 1;
   if (windowed) {
@@ -43,12 +44,16 @@ export function weightedData(d: GridData, binning: number, P: number, windowed: 
     flux[off + i] = wi > 0 ? d.flux[i] : 0;
   }
   // polynomials over the data's own span (the window's padding has w = 0 anyway)
-  const qData = weightedOrthonormalPolys(w.subarray(off, off + d.flux.length), P);
-  const q = qData.map((v) => {
-    const full = new Float64Array(n);
-    full.set(v, off);
-    return full;
-  });
+  const qData = weightedOrthonormalPolys(w.subarray(off, off + d.flux.length), P, rawPolys);
+  const q: Float64Array[] = [];
+  for (const v of qData) {
+    if (off === 0 && v.length === n) q.push(v);
+    else {
+      const full = new Float64Array(n);
+      full.set(v, off);
+      q.push(full);
+    }
+  }
   const wf = new Float64Array(n);
   let F = 0;
   let nGood = 0;
@@ -57,11 +62,18 @@ export function weightedData(d: GridData, binning: number, P: number, windowed: 
     F += wf[i] * flux[i];
     if (w[i] > 0) nGood++;
   }
-  const wq = q.map((v) => v.map((x, i) => x * w[i]));
-  const g = Float64Array.from(wq, (v) => {
+  const wq: Float64Array[] = [];
+  const g = new Float64Array(q.length);
+  for (let a = 0; a < q.length; a++) {
+    const qa = q[a];
+    const v = new Float64Array(n);
     let s = 0;
-    for (let i = 0; i < n; i++) s += v[i] * flux[i];
-    return s;
-  });
+    for (let i = 0; i < n; i++) {
+      v[i] = qa[i] * w[i];
+      s += v[i] * flux[i];
+    }
+    wq.push(v);
+    g[a] = s;
+  }
   return { d0, w, wf, wq, flux, q, F, g, nGood, dlog10: DLOG10 * binning };
 }

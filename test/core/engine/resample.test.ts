@@ -1,7 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { binLogSpectrum, pixelEdgesA, resampleToLogGrid } from '../../../src/core/engine/resample';
 import { DLOG10 } from '../../../src/core/engine/logGrid';
-import { makeRng } from './synth';
+import { createRng } from '../../../src/core/sim/prng';
+
+/** The simulator's PRNG with the short names this file uses. */
+function makeRng(seed: number) {
+  const r = createRng(seed);
+  return { next: () => r.next(), gauss: () => r.gaussian() };
+}
 import type { Spectrum } from '../../../src/core/types';
 
 function linearSpectrum(n: number, start: number, step: number, f: (l: number) => number, ivar: number | null): Spectrum {

@@ -152,7 +152,14 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
     setNaming(null);
     setMessage(null);
     void (async () => {
-      const r = (await session.getResult(key)) ?? null;
+      let r: FitResult | null;
+      try {
+        r = (await session.getResult(key)) ?? null;
+      } catch (e) {
+        // The browser's storage refused the read (closed or gone): say so instead of failing silently.
+        if (!stale) setSpec({ kind: 'error', message: `The stored fit could not be read: ${(e as Error)?.message ?? e}` });
+        return;
+      }
       if (stale) return;
       setResult(r);
       const fromDecision = row.decision && r ? solutionFromDecision(row.decision, r) : null;

@@ -282,6 +282,37 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
       }
     }
 
+    // 6. Undo leaves nothing staged: the spectrum changed to candidate 2 goes back to its automatic solution, unsaved.
+    await page.getByTestId('export-panel').getByRole('button', { name: /close/i }).click();
+    await page.getByTestId('export-panel').waitFor({ state: 'detached' });
+    const changedRow = page.getByTestId('spectrum-row').filter({ has: page.locator('.c-id', { hasText: made[1].objectId }) });
+    await changedRow.click();
+    await expect.poll(() => title(page)).toBe(made[1].objectId);
+    await page.getByTestId('decision-state').waitFor();
+    await page.keyboard.press('u');
+    await expect.poll(() => page.getByTestId('unreviewed-caution').textContent()).toContain('Automatic redshift, not reviewed');
+    expect(await setByOf(page)).toBe('set by: automatic fit');
+    expect(await page.getByTestId('solution-z').textContent()).not.toBe(made[1].shownZ);
+
+    // 7. The best star solution is one key away (Shift+S) on a spectrum another class wins; stars are searched near z = 0.
+    let starFound = false;
+    for (let guard = 0; guard < 12 && !starFound; guard++) {
+      const hasStar = (await page.getByTestId('candidate-class').filter({ hasText: 'best star' }).count()) > 0;
+      const wonBy = /^z = \S+ ± \S+ (\w+)/.exec(await solutionText(page))?.[1] ?? (await solutionText(page)).split(' ')[3];
+      if (hasStar && wonBy !== 'star') {
+        starFound = true;
+        await page.keyboard.press('Shift+S');
+        await expect.poll(() => solutionText(page)).toMatch(/ star set by: candidate \d/);
+        expect(Math.abs(Number(await page.getByTestId('solution-z').textContent()))).toBeLessThan(0.0034); // +-1000 km/s
+        await page.screenshot({ path: artifactPath('star-by-key.png') });
+      } else {
+        const before = await title(page);
+        await page.keyboard.press('j');
+        await waitForNewTitle(page, before);
+      }
+    }
+    expect(starFound, 'a spectrum won by another class with a star candidate among the first ones').toBe(true);
+
     expect(pageErrors).toEqual([]);
     expect(requestsSeen).toBeGreaterThan(DEMO_FILES.length); // the watch saw the demo set's requests
     expect(outside).toEqual([]);

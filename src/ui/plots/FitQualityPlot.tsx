@@ -435,8 +435,12 @@ export function FitQualityPlot(props: FitQualityPlotProps): ReactElement {
       .attr('stroke', '#000')
       .attr('stroke-width', 1.5)
       .attr('stroke-dasharray', '6 2 1 2');
+    // The label goes left of the rule near the right edge, so it is never cut off.
+    const rightEdge = (xi ?? x).range()[1];
+    const flip = (v: number) => xRule(v) > rightEdge - 64;
     g.select('text')
-      .attr('x', (v) => xRule(v) + 3)
+      .attr('text-anchor', (v) => (flip(v) ? 'end' : 'start'))
+      .attr('x', (v) => xRule(v) + (flip(v) ? -3 : 3))
       .attr('y', y.range()[1] + 10)
       .text((v) => `z = ${fmtZ(v)}`);
   }, [scales, currentZ]);

@@ -265,3 +265,33 @@ describe('list: failed files, names, duplicates', () => {
     db.close();
   });
 });
+
+describe('bulk accept of a filtered view', () => {
+  it('says how many, records each as a bulk step, and undoes the whole step but not a later hand decision', async () => {
+    const grades: Record<string, 'high' | 'low'> = { 'a.txt': 'high', 'b.txt': 'low', 'c.txt': 'high', 'd.txt': 'high' };
+    const { session, db } = await batch(Object.keys(grades), (f) => makeResult(f, { confidence: grades[f] }));
+    render(<App services={{ session, review: fakeReview() }} />);
+    await screen.findByText('200 px');
+    fireEvent.change(screen.getByLabelText('Filter'), { target: { value: 'unreviewedHigh' } });
+    const expected = Object.values(grades).filter((g) => g === 'high').length;
+    fireEvent.click(screen.getByTestId('bulk-accept'));
+    expect(screen.getByTestId('bulk-count').textContent).toBe(String(expected));
+    fireEvent.click(screen.getByTestId('bulk-confirm-accept'));
+    await waitUntil(() => session.getSnapshot().rows.filter((r) => r.decision).length === expected, 'bulk decisions');
+    const decided = session.getSnapshot().rows.filter((r) => r.decision);
+    expect(decided.map((r) => r.file).sort()).toEqual(Object.keys(grades).filter((f) => grades[f] === 'high').sort());
+    for (const r of decided) {
+      expect(r.decision).toMatchObject({ state: 'accepted', howSet: 'auto', reviewer: 'Tester', z: r.summary!.z });
+      expect(r.decision!.note).toMatch(/bulk/);
+    }
+    expect(session.getSnapshot().rows.find((r) => r.file === 'b.txt')!.decision).toBeUndefined();
+    // A hand decision after the step is kept by its undo.
+    const keyA = session.getSnapshot().rows.find((r) => r.file === 'a.txt')!.key;
+    await act(() => session.decide(keyA, { ...session.row(keyA)!.decision!, state: 'rejected', z: null, zErr: null, decidedAt: '2030-01-01T00:00:00.000Z' }));
+    fireEvent.click(await screen.findByTestId('bulk-undo'));
+    await waitUntil(() => session.getSnapshot().rows.filter((r) => r.decision).length === 1, 'undo of the step');
+    expect(session.row(keyA)!.decision!.state).toBe('rejected');
+    cleanup();
+    db.close();
+  });
+});

@@ -7,12 +7,13 @@ import type { Row } from '../state/session';
 import type { Grade, ReviewState } from '../../core/types';
 import { flagsOf } from '../review/flags';
 
-export type ListFilter = 'all' | 'unreviewed' | 'reviewed' | 'flagged' | 'failures';
+export type ListFilter = 'all' | 'unreviewed' | 'unreviewedHigh' | 'reviewed' | 'flagged' | 'failures';
 export type ListSort = 'batch' | 'lowConfidence' | 'redshift' | 'snr' | 'name';
 
 export const FILTERS: readonly { id: ListFilter; label: string }[] = [
   { id: 'all', label: 'All spectra' },
   { id: 'unreviewed', label: 'Not yet reviewed' },
+  { id: 'unreviewedHigh', label: 'Not yet reviewed, machine grade high' },
   { id: 'reviewed', label: 'Reviewed' },
   { id: 'flagged', label: 'Flagged by a reviewer' },
   { id: 'failures', label: 'Only failures' },
@@ -70,6 +71,8 @@ function matches(row: Row, filter: ListFilter): boolean {
       return true;
     case 'unreviewed':
       return reviewState(row) === 'unreviewed';
+    case 'unreviewedHigh':
+      return reviewState(row) === 'unreviewed' && row.status === 'ok' && row.summary?.status === 'ok' && row.summary.confidence === 'high';
     case 'reviewed':
       return reviewState(row) !== 'unreviewed';
     case 'flagged':
@@ -147,4 +150,9 @@ export function nextUnreviewed(rows: readonly Row[], fromKey: string | null, inc
 export function cycle<T extends string>(list: readonly { id: T }[], current: T): T {
   const i = list.findIndex((x) => x.id === current);
   return list[(i + 1) % list.length].id;
+}
+
+/** Rows a bulk accept would take: fitted, not yet reviewed, with an automatic redshift. */
+export function bulkAcceptable(rows: readonly Row[]): Row[] {
+  return rows.filter((r) => r.status === 'ok' && reviewState(r) === 'unreviewed' && r.summary?.status === 'ok' && Number.isFinite(r.summary.z));
 }

@@ -164,3 +164,20 @@ const GRADE_CYCLE: readonly (Grade | null)[] = [null, 'high', 'medium', 'low', '
 export function nextGrade(g: Grade | null): Grade | null {
   return GRADE_CYCLE[(GRADE_CYCLE.indexOf(g) + 1) % GRADE_CYCLE.length];
 }
+
+/** Note written on every decision of a bulk accept, so exports tell them apart from spectra looked at one by one. */
+export const BULK_NOTE = 'accepted in a bulk step, not inspected one by one';
+
+/** Accept the automatic solution of a fitted spectrum without opening it (bulk step). */
+export function bulkAcceptDraft(file: string, auto: { z: number; zErr: number; class: SpectrumClass }): DecisionDraft {
+  return {
+    file,
+    state: 'accepted',
+    z: auto.z,
+    zErr: Number.isFinite(auto.zErr) ? auto.zErr : null,
+    class: auto.class,
+    reviewerGrade: null,
+    howSet: 'auto',
+    note: BULK_NOTE,
+  };
+}

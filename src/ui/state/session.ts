@@ -348,6 +348,39 @@ export class Session {
     }
   }
 
+  /** Store many decisions (a bulk step) and publish once. */
+  async decideMany(items: readonly { key: string; decision: ReviewDecision }[]): Promise<void> {
+    try {
+      for (const { key, decision } of items) {
+        if (!this.rowsByKey.has(key)) continue;
+        await this.db.putDecision(key, decision);
+        this.setRow({ ...this.rowsByKey.get(key)!, decision });
+      }
+    } finally {
+      // Whatever was written (or kept in memory after a refused write) is shown.
+      for (const { key, decision } of items) {
+        const r = this.rowsByKey.get(key);
+        if (r && r.decision !== decision) this.setRow({ ...r, decision });
+      }
+      this.flush();
+    }
+  }
+
+  /** Put many spectra back to 'not reviewed' (undo of a bulk step). */
+  async reopenMany(keys: readonly string[]): Promise<void> {
+    try {
+      for (const key of keys) if (this.rowsByKey.has(key)) await this.db.deleteDecision(key);
+    } finally {
+      for (const key of keys) {
+        const r = this.rowsByKey.get(key);
+        if (!r) continue;
+        const { decision: _drop, ...rest } = r;
+        this.setRow(rest);
+      }
+      this.flush();
+    }
+  }
+
   /** Put a spectrum back to 'not reviewed'. */
   async reopen(key: string): Promise<void> {
     const row = this.rowsByKey.get(key);

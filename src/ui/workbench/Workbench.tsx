@@ -7,7 +7,9 @@ import React, { useCallback, useEffect, useMemo, useRef, useState } from 'react'
 import type { ReviewDecision } from '../../core/types';
 import { useServices, useSessionSnapshot } from '../state/SessionContext';
 import { SpectrumList } from '../list/SpectrumList';
-import { FILTERS, SORTS, cycle, findByName, isFailure, nextUnreviewed, reviewState, viewRows, type ListFilter, type ListSort } from '../list/listView';
+import { FILTERS, SORTS, bulkAcceptable, cycle, findByName, isFailure, nextUnreviewed, reviewState, viewRows, type ListFilter, type ListSort } from '../list/listView';
+import { bulkAcceptDraft } from '../review/solution';
+import type { Row } from '../state/session';
 import { actionForKey, keyFor } from '../keys/keyMap';
 import { ReviewPanel, type ReviewHandle } from '../review/ReviewPanel';
 import type { DecisionDraft } from '../review/solution';
@@ -17,6 +19,7 @@ import { ReviewerNameDialog } from '../panels/ReviewerNameDialog';
 import { ExportPanel } from '../export/ExportPanel';
 import { SessionPanel } from '../panels/SessionPanel';
 import type { Collected } from '../intake/collectFiles';
+import { Overlay } from '../panels/Overlay';
 
 type PanelId = 'help' | 'export' | 'cosmology' | 'session' | null;
 
@@ -24,6 +27,19 @@ export interface WorkbenchProps {
   onCollected: (c: Collected) => void;
   onDemo: () => void;
   onExportSession: () => void;
+}
+
+/** "30 high, 10 medium, 4 low" for a confirmation. */
+function gradeBreakdown(rows: readonly Row[]): string {
+  const n = new Map<string, number>();
+  for (const r of rows) {
+    const g = r.summary?.confidence ?? 'none';
+    n.set(g, (n.get(g) ?? 0) + 1);
+  }
+  return ['high', 'medium', 'low', 'none']
+    .filter((g) => n.has(g))
+    .map((g) => `${n.get(g)} ${g}`)
+    .join(', ');
 }
 
 /** The list keeps at least 280 px, the review panel at least 480 px. */
@@ -58,6 +74,10 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
   const [jumpNote, setJumpNote] = useState<string | null>(null);
   const [listWidthPx, setListWidthPx] = useState<number | null>(() => (typeof saved?.listWidthPx === 'number' ? saved.listWidthPx : null));
   const [confirmRemove, setConfirmRemove] = useState(false);
+  /** Rows a bulk accept is about to take (the confirmation is open), and the last bulk step (for its undo). */
+  const [bulkAsk, setBulkAsk] = useState<Row[] | null>(null);
+  const [bulkNeedsName, setBulkNeedsName] = useState<Row[] | null>(null);
+  const [lastBulk, setLastBulk] = useState<{ keys: string[]; decidedAt: string } | null>(null);
 
   const rows = useMemo(() => viewRows(snap.rows, filter, sort), [snap.rows, filter, sort]);
   const current = currentKey ? session.row(currentKey) ?? null : null;
@@ -137,6 +157,26 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
     [currentKey, rows, session, filter, choose],
   );
 
+  const runBulk = useCallback(
+    async (take: readonly Row[], reviewer: string) => {
+      const decidedAt = new Date().toISOString();
+      const items = take
+        .filter((r) => r.summary && r.summary.status === 'ok')
+        .map((r) => ({ key: r.key, decision: { ...bulkAcceptDraft(r.file, r.summary!), reviewer, decidedAt } satisfies ReviewDecision }));
+      await session.decideMany(items).catch(() => undefined);
+      setLastBulk({ keys: items.map((i) => i.key), decidedAt });
+    },
+    [session],
+  );
+
+  const undoBulk = useCallback(async () => {
+    if (!lastBulk) return;
+    // Only decisions the step made and nobody changed since.
+    const keys = lastBulk.keys.filter((k) => session.row(k)?.decision?.decidedAt === lastBulk.decidedAt);
+    setLastBulk(null);
+    await session.reopenMany(keys).catch(() => undefined);
+  }, [lastBulk, session]);
+
   const onDecision = useCallback(
     (draft: DecisionDraft) => {
       if (!snap.reviewer) setPending(draft);
@@ -154,7 +194,7 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
         e.preventDefault();
         return;
       }
-      if (panel || pending) return; // an open panel has the keyboard (Escape closes it)
+      if (panel || pending || bulkAsk || bulkNeedsName) return; // an open panel has the keyboard (Escape closes it)
       if (!action) return;
       if (isTextTarget(e.target)) {
         if (action === 'escape') (e.target as HTMLElement).blur();
@@ -202,7 +242,7 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
     };
     window.addEventListener('keydown', onKey);
     return () => window.removeEventListener('keydown', onKey);
-  }, [panel, pending, move, goNextUnreviewed]);
+  }, [panel, pending, bulkAsk, bulkNeedsName, move, goNextUnreviewed]);
 
   // Files that could not be read or fitted are not counted as work to review (unless someone decided on them).
   const counts = useMemo(() => {
@@ -272,6 +312,11 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
         <span className="muted" data-testid="review-counts">
           {counts.reviewed} of {counts.total} reviewed · {rows.length} shown{counts.failed ? ` · ${counts.failed} could not be read or fitted` : ''}
         </span>
+        {bulkAcceptable(rows).length > 0 && (
+          <button type="button" onClick={() => setBulkAsk(bulkAcceptable(rows))} data-testid="bulk-accept">
+            Accept all shown…
+          </button>
+        )}
         {failedKeys.length > 0 &&
           (confirmRemove ? (
             <span className="confirm" role="group" aria-label="Confirm removal">
@@ -308,6 +353,17 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
           Keys <kbd>?</kbd>
         </button>
       </div>
+      {lastBulk && (
+        <p className="banner banner-note" role="status" data-testid="bulk-done">
+          Accepted {lastBulk.keys.length} automatic redshifts in one step.{' '}
+          <button type="button" onClick={() => void undoBulk()} data-testid="bulk-undo">
+            Undo this step
+          </button>{' '}
+          <button type="button" onClick={() => setLastBulk(null)}>
+            Dismiss
+          </button>
+        </p>
+      )}
       {jumpNote && (
         <p className="banner banner-note" role="status" data-testid="jump-note">
           {jumpNote}
@@ -351,6 +407,43 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
           <p className="muted review-empty">Choose a spectrum from the list.</p>
         )}
       </div>
+      {bulkAsk && (
+        <Overlay title="Accept all shown" onClose={() => setBulkAsk(null)} testId="bulk-confirm">
+          <p>
+            Accept the automatic redshift of <strong data-testid="bulk-count">{bulkAsk.length}</strong> spectra in this view ({FILTERS.find((f) => f.id === filter)?.label.toLowerCase()}), without opening them one by one?
+          </p>
+          <p className="muted">Machine grades: {gradeBreakdown(bulkAsk)}.</p>
+          <p className="caution">Each is recorded as accepted by you, with a note that it was accepted in a bulk step. You can undo the whole step right after.</p>
+          <div className="decision-buttons">
+            <button
+              type="button"
+              className="primary"
+              data-testid="bulk-confirm-accept"
+              onClick={() => {
+                const take = bulkAsk;
+                setBulkAsk(null);
+                if (snap.reviewer) void runBulk(take, snap.reviewer);
+                else setBulkNeedsName(take);
+              }}
+            >
+              Accept {bulkAsk.length}
+            </button>
+            <button type="button" onClick={() => setBulkAsk(null)}>
+              Cancel
+            </button>
+          </div>
+        </Overlay>
+      )}
+      {bulkNeedsName && (
+        <ReviewerNameDialog
+          onCancel={() => setBulkNeedsName(null)}
+          onSubmit={(name) => {
+            const take = bulkNeedsName;
+            setBulkNeedsName(null);
+            void session.setReviewer(name).then(() => runBulk(take, name));
+          }}
+        />
+      )}
       {panel === 'help' && <HelpOverlay onClose={() => setPanel(null)} />}
       {panel === 'cosmology' && (
         <CosmologyPanel

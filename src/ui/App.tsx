@@ -10,6 +10,7 @@ import { DropZone } from './intake/DropZone';
 import { ProgressPanel } from './intake/ProgressPanel';
 import { PersistBanner } from './PersistBanner';
 import { Workbench } from './workbench/Workbench';
+import { SessionLoader } from './panels/SessionLoader';
 import type { Collected } from './intake/collectFiles';
 import { loadDemo } from './demo/loadDemo';
 import { downloadBlob, stamp } from './download';
@@ -134,6 +135,8 @@ function Shell({ autoDemo, fetchFn }: { autoDemo: boolean; fetchFn?: typeof fetc
             files are read and fitted in this browser.
           </p>
           <DropZone onCollected={addCollected} onDemo={() => void loadDemoSet()} busy={demoState !== null && demoState.startsWith('Loading')} />
+          <h3>Or go on with saved work</h3>
+          <SessionLoader />
         </main>
       )}
     </div>

@@ -295,3 +295,52 @@ describe('bulk accept of a filtered view', () => {
     db.close();
   });
 });
+
+describe('sessions', () => {
+  async function savedSessionText(): Promise<{ text: string; files: string[] }> {
+    const { session, db } = await batch(['s1.txt', 's2.txt']);
+    const key = session.getSnapshot().rows[0].key;
+    await session.decide(key, { ...(await import('./fixtures')).makeDecision('s1.txt'), flags: ['blend'] } as Parameters<typeof session.decide>[1]);
+    const text = await session.exportSession(false);
+    db.close();
+    return { text, files: ['s1.txt', 's2.txt'] };
+  }
+
+  it('the empty start page loads a session file, decisions and flags included', async () => {
+    const { text } = await savedSessionText();
+    const { session, db } = await makeSession();
+    render(<App services={{ session, review: fakeReview() }} />);
+    const input = (await screen.findByLabelText('Session file')) as HTMLInputElement;
+    fireEvent.change(input, { target: { files: [new File([text], 'saved.json', { type: 'application/json' })] } });
+    await waitUntil(() => session.getSnapshot().rows.length === 2, 'loaded rows');
+    const decided = session.getSnapshot().rows.find((r) => r.decision)!;
+    expect(decided.file).toBe('s1.txt');
+    expect(flagsOf(decided.decision)).toEqual(['blend']);
+    cleanup();
+    db.close();
+  });
+
+  it('with spectra here, loading asks: merge keeps both, replace keeps only the file', async () => {
+    const { text } = await savedSessionText();
+    for (const mode of ['merge', 'replace'] as const) {
+      const { session, db } = await batch(['here.txt']);
+      render(<App services={{ session, review: fakeReview() }} />);
+      await screen.findByText('200 px');
+      press('b');
+      const input = (await screen.findByLabelText('Session file')) as HTMLInputElement;
+      fireEvent.change(input, { target: { files: [new File([text], 'saved.json', { type: 'application/json' })] } });
+      const choice = await screen.findByTestId('import-choice');
+      expect(session.getSnapshot().rows).toHaveLength(1); // nothing changes before the choice
+      if (mode === 'replace') fireEvent.click(within(choice).getByTestId('load-replace'));
+      fireEvent.click(within(choice).getByTestId('load-confirm'));
+      const want = mode === 'merge' ? ['here.txt', 's1.txt', 's2.txt'] : ['s1.txt', 's2.txt'];
+      const files = () => session.getSnapshot().rows.map((r) => r.file).sort().join(',');
+      await waitUntil(() => files() === want.join(','), `${mode} result`);
+      expect((await screen.findByTestId('load-status')).textContent).toMatch(mode === 'merge' ? /^Loaded/ : /^Replaced/);
+      // The loaded decision came along either way.
+      expect(session.getSnapshot().rows.find((r) => r.file === 's1.txt')!.decision).toBeDefined();
+      cleanup();
+      db.close();
+    }
+  });
+});

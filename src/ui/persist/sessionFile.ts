@@ -9,7 +9,11 @@ import { bytesToBase64, base64ToBytes } from './base64';
 import { decisionProblems, fitResultProblems, asDecision, asFitResult } from './validateRecords';
 
 export const SESSION_FORMAT = 'shiftmark-session';
-export const SESSION_VERSION = 1;
+/** Version written; versions read: 1 (curves as number lists) and 2 (curves thinned, as base64 float32). */
+export const SESSION_VERSION = 2;
+const READABLE_VERSIONS = [1, 2];
+/** Points kept per fit-quality curve in a session file (the lowest point of each block, so every well stays). */
+export const SESSION_CURVE_POINTS = 500;
 /** Largest session file read, bytes (a guard against a wrong file, not a real limit). */
 export const MAX_SESSION_BYTES = 1_500_000_000;
 
@@ -34,11 +38,51 @@ export interface SessionFile {
   entries: SessionFileEntry[];
 }
 
-type Tagged = { $f64: number[] } | { $num: 'NaN' | 'Infinity' | '-Infinity' } | { $b64: string };
+type Tagged = { $f64: number[] } | { $f32: string } | { $num: 'NaN' | 'Infinity' | '-Infinity' } | { $b64: string };
+
+/**
+ * A fit-quality curve thinned to at most maxPoints: the grid cut into equal
+ * blocks, the lowest delta chi-square of each kept with its z, so the minima
+ * (candidates) survive. For session files: the curve is only drawn.
+ */
+export function thinCurve(z: Float64Array, d: Float64Array, maxPoints = SESSION_CURVE_POINTS): { z: Float64Array; deltaChi2: Float64Array } {
+  const n = Math.min(z.length, d.length);
+  if (n <= maxPoints) return { z, deltaChi2: d };
+  const oz = new Float64Array(maxPoints);
+  const od = new Float64Array(maxPoints);
+  for (let q = 0; q < maxPoints; q++) {
+    const i0 = Math.floor((q * n) / maxPoints);
+    const i1 = Math.floor(((q + 1) * n) / maxPoints);
+    let k = i0;
+    for (let i = i0 + 1; i < i1; i++) if (d[i] < d[k] || !(d[k] === d[k])) k = i;
+    oz[q] = z[k];
+    od[q] = d[k];
+  }
+  return { z: oz, deltaChi2: od };
+}
+
+/** Every fit-quality curve of the session thinned (results are copied, never changed). */
+function thinResults(session: SessionFile): SessionFile {
+  return {
+    ...session,
+    entries: session.entries.map((e) =>
+      e.result ? { ...e, result: { ...e.result, curves: e.result.curves.map((c) => ({ family: c.family, ...thinCurve(c.z, c.deltaChi2) })) } } : e,
+    ),
+  };
+}
+
+/** Typed-array kind by its tag, not instanceof, so arrays from another realm (a storage layer's structured clone) are recognised. */
+function typedKind(value: unknown): string | null {
+  return ArrayBuffer.isView(value) ? Object.prototype.toString.call(value).slice(8, -1) : null;
+}
 
 function encodeValue(_key: string, value: unknown): unknown {
   if (typeof value === 'number' && !Number.isFinite(value)) return { $num: String(value) } as Tagged;
-  if (value instanceof Float64Array) return { $f64: Array.from(value, (x) => (Number.isFinite(x) ? x : String(x))) };
+  const kind = typedKind(value);
+  if (kind === 'Float64Array') return { $f32: bytesToBase64(new Uint8Array(Float32Array.from(value as Float64Array).buffer)) } as Tagged;
+  if (kind === 'Uint8Array') return { $b64: bytesToBase64(value as Uint8Array) } as Tagged;
+  // Curves are drawn, not computed with: float32 (7 digits) as base64 is a quarter of the text of a number list.
+  if (value instanceof Float64Array) return { $f32: bytesToBase64(new Uint8Array(Float32Array.from(value).buffer)) } as Tagged;
   if (value instanceof Uint8Array) return { $b64: bytesToBase64(value) } as Tagged;
   return value;
 }
@@ -61,6 +105,12 @@ function decodeValue(_key: string, value: unknown): unknown {
     if (!Array.isArray(v.$f64)) throw new Error('$f64 is not a list');
     return Float64Array.from(v.$f64, decodeNumber);
   }
+  if ('$f32' in v) {
+    if (typeof v.$f32 !== 'string' || !/^[A-Za-z0-9+/]*={0,2}$/.test(v.$f32)) throw new Error('$f32 is not base64');
+    const bytes = base64ToBytes(v.$f32);
+    if (bytes.length % 4) throw new Error('$f32 is not a whole number of float32 values');
+    return Float64Array.from(new Float32Array(bytes.buffer, bytes.byteOffset, bytes.length / 4));
+  }
   if ('$b64' in v) {
     if (typeof v.$b64 !== 'string' || !/^[A-Za-z0-9+/]*={0,2}$/.test(v.$b64)) throw new Error('$b64 is not base64');
     return base64ToBytes(v.$b64);
@@ -69,7 +119,7 @@ function decodeValue(_key: string, value: unknown): unknown {
 }
 
 export function encodeSession(session: SessionFile): string {
-  return JSON.stringify(session, encodeValue);
+  return JSON.stringify(thinResults(session), encodeValue);
 }
 
 export type ParsedSession = { ok: true; session: SessionFile } | { ok: false; problems: string[] };
@@ -87,7 +137,8 @@ export function parseSession(text: string): ParsedSession {
   if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return { ok: false, problems: ['the file does not hold a session object'] };
   const r = raw as Record<string, unknown>;
   if (r.format !== SESSION_FORMAT) return { ok: false, problems: [`not a Shiftmark session file (format is ${JSON.stringify(r.format)})`] };
-  if (r.version !== SESSION_VERSION) problems.push(`session file version ${String(r.version)} is not supported (expected ${SESSION_VERSION})`);
+  if (!READABLE_VERSIONS.includes(r.version as number))
+    problems.push(`session file version ${String(r.version)} is not supported (this version reads ${READABLE_VERSIONS.join(' and ')})`);
   if (typeof r.exportedAt !== 'string') problems.push('exportedAt is missing');
   if (typeof r.reviewer !== 'string') problems.push('reviewer is not text');
   if (typeof r.software !== 'string') problems.push('software is not text');

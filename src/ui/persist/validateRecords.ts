@@ -4,6 +4,7 @@
  * record is sound; nothing from the file is used before it passes.
  */
 import type { FitResult, ReviewDecision } from '../../core/types';
+import { isReviewFlag } from '../review/flags';
 
 const STATES = ['unreviewed', 'accepted', 'changed', 'rejected'];
 const HOW_SET = ['auto', 'candidate', 'line', 'typed', 'refit'];
@@ -38,6 +39,7 @@ export function decisionProblems(v: unknown, where: string): string[] {
   if (!isStr(v.note)) p.push(`${where}: decision.note is not text`);
   if (v.state === 'rejected' && v.z !== null) p.push(`${where}: a rejected decision carries a redshift`);
   if (v.state !== 'rejected' && v.state !== 'unreviewed' && v.z === null) p.push(`${where}: an accepted or changed decision has no redshift`);
+  if (v.flags !== undefined && !(Array.isArray(v.flags) && v.flags.every(isReviewFlag))) p.push(`${where}: decision.flags holds an unknown flag`);
   if (v.lineId !== undefined) {
     if (!isObj(v.lineId) || !isStr(v.lineId.id) || !isNum(v.lineId.observedA)) p.push(`${where}: decision.lineId is malformed`);
   }

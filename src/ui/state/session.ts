@@ -453,13 +453,32 @@ export class Session {
 
   /** Forget the batch (settings stay). */
   async clearBatch(): Promise<void> {
+    await this.forgetBatch();
+    this.flush();
+  }
+
+  private async forgetBatch(): Promise<void> {
     this.abort?.abort();
     await this.db.clearBatch();
     this.rowsByKey.clear();
     this.order = [];
     this.nextOrder = 0;
     this.progress = EMPTY_PROGRESS;
-    this.flush();
+    this.draft = null;
+  }
+
+  /**
+   * Replace the batch by a session file: checked first (nothing is forgotten
+   * when the file is refused), then the batch is forgotten and the file
+   * loaded, shown in one step.
+   */
+  async replaceWithSession(text: string): Promise<{ ok: true; plan: ImportPlan } | { ok: false; problems: string[] }> {
+    const parsed = parseSession(text);
+    if (!parsed.ok) return parsed;
+    await this.forgetBatch();
+    const plan = planImport(new Map(), parsed.session);
+    await this.applyImport(plan);
+    return { ok: true, plan };
   }
 
   // ---- session file --------------------------------------------------

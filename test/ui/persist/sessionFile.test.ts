@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { encodeSession, parseSession, SESSION_FORMAT, SESSION_VERSION, type SessionFile } from '../../../src/ui/persist/sessionFile';
+import { encodeSession, parseSession, thinCurve, SESSION_CURVE_POINTS, SESSION_FORMAT, SESSION_VERSION, type SessionFile } from '../../../src/ui/persist/sessionFile';
 import { makeResult, makeFailed, makeDecision } from '../fixtures';
 
 function session(over: Partial<SessionFile> = {}): SessionFile {
@@ -74,5 +74,47 @@ describe('session file', () => {
     raw.entries[0].bytes = { $b64: '<script>' };
     const r = parseSession(JSON.stringify(raw));
     expect(r.ok).toBe(false);
+  });
+});
+
+describe('session file size', () => {
+  // Invented curves of the engine's size: 1500 points per family, four families, a well in each.
+  const n = 1500;
+  const z = Float64Array.from({ length: n }, (_, i) => (i * 6.5) / (n - 1));
+  const wells = [2.3456, 0.7321, 1.111, 0.0004];
+  const curves = wells.map((w, f) => ({ family: `fam${f}`, z, deltaChi2: z.map((v) => 50 + 2000 * Math.abs(v - w)) }));
+  const big = (): SessionFile => session({ entries: [{ key: 'a|3|1', file: 'a.fits', order: 0, result: makeResult('a.fits', { curves }), decision: null }] });
+
+  it('thins the curves and writes them compactly, keeping every well', () => {
+    const text = encodeSession(big());
+    const plain = JSON.stringify(big().entries[0].result!.curves.map((c) => [Array.from(c.z), Array.from(c.deltaChi2)]));
+    expect(text.length).toBeLessThan(plain.length / 8);
+    const back = parseSession(text);
+    expect(back.ok).toBe(true);
+    if (!back.ok) return;
+    back.session.entries[0].result!.curves.forEach((c, f) => {
+      expect(c.z.length).toBeLessThanOrEqual(SESSION_CURVE_POINTS);
+      const k = c.deltaChi2.indexOf(Math.min(...c.deltaChi2));
+      // The lowest point kept is the lowest grid point of the original (within float32 rounding).
+      const orig = curves[f];
+      const ko = orig.deltaChi2.indexOf(Math.min(...orig.deltaChi2));
+      expect(c.z[k]).toBeCloseTo(orig.z[ko], 5);
+    });
+  });
+
+  it('still reads version 1 files (curves as number lists)', () => {
+    const s = session({ version: 1 });
+    // Version 1 wrote typed arrays as number lists and non-finite numbers as tagged text.
+    const v1 = JSON.stringify(s, (_k, v) =>
+      typeof v === 'number' && !Number.isFinite(v) ? { $num: String(v) } : v instanceof Float64Array ? { $f64: Array.from(v) } : v instanceof Uint8Array ? { $b64: 'AP8H' } : v,
+    );
+    const back = parseSession(v1);
+    expect(back.ok).toBe(true);
+    if (back.ok) expect(Array.from(back.session.entries[0].result!.curves[0].deltaChi2)).toEqual([50, 0, 60]);
+  });
+
+  it('thinCurve keeps short curves as they are', () => {
+    const short = thinCurve(Float64Array.from([0, 1, 2]), Float64Array.from([3, 0, 4]), 10);
+    expect(Array.from(short.deltaChi2)).toEqual([3, 0, 4]);
   });
 });

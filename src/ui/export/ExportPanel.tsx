@@ -53,8 +53,8 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
           </label>
         </fieldset>
         <p className="muted small">
-          Columns: the automatic fit (as the command line writes it), the review (final z and class, state, how set, grades, reviewer, time,
-          note) and derived quantities for {describeCosmology(snap.cosmology)}.
+          Columns: the automatic fit (as the command line writes it), the review (final z and class, state, how set, the named line and its
+          observed wavelength, grades, reviewer, time, note, review flags) and derived quantities for {describeCosmology(snap.cosmology)}.
         </p>
         {scope === 'all' && unreviewed > 0 && (
           <p className="caution">{unreviewed} rows are not reviewed: their redshifts are automatic hypotheses (review_state = unreviewed).</p>

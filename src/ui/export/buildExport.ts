@@ -50,7 +50,7 @@ export const FLAG_COLUMNS: readonly ColumnDef[] = [
     type: 'text',
     group: 'review',
     ucd: 'meta.code',
-    description: `Problems the reviewer marked, ';'-separated: ${FLAGS.map((f) => `${f.id} (${f.label.toLowerCase()})`).join(', ')}`,
+    description: `Problems the reviewer marked, ';'-separated: ${FLAGS.map((f) => `${f.id} (${f.label})`).join(', ')}`,
   },
 ];
 

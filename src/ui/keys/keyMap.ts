@@ -54,7 +54,7 @@ export const KEY_MAP: readonly KeyBinding[] = [
   { action: 'nameLine', keys: ['l'], label: 'Name a line: type its observed wavelength (or click a feature in the spectrum)' },
   { action: 'grade', keys: ['g'], label: 'Cycle your confidence grade: high, medium, low, none' },
   { action: 'note', keys: ['e'], label: 'Write a note' },
-  { action: 'flag', keys: FLAGS.map((f) => f.key), label: `Toggle a review flag: ${FLAGS.map((f) => `${f.key} ${f.label.toLowerCase()}`).join('; ')}` },
+  { action: 'flag', keys: FLAGS.map((f) => f.key), label: `Toggle a review flag. ${FLAGS.map((f) => `${f.key}: ${f.label}`).join('; ')}` },
   { action: 'filter', keys: ['f'], label: 'Cycle the list filter' },
   { action: 'sort', keys: ['s'], label: 'Cycle the list order' },
   { action: 'jump', keys: ['/'], label: 'Jump to a spectrum by name (type part of its id or file name, Enter)' },

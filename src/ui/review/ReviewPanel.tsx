@@ -123,7 +123,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
     <section className="review-panel" aria-label="Review" data-testid="review-panel">
       <header className="review-head">
         <h2 data-testid="review-title">{summary?.objectId || row.file}</h2>
-        <span className="muted">{row.file}</span>
+        {summary?.objectId ? <span className="muted">{row.file}</span> : null}
         {summary && summary.nPix > 0 && (
           <span className="muted">
             {summary.nPix} pixels, {fmtRangeA(summary.lambdaMinA, summary.lambdaMaxA)}

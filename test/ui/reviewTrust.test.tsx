@@ -344,3 +344,29 @@ describe('sessions', () => {
     }
   });
 });
+
+describe('list width', () => {
+  it('clampListWidth keeps room for the list and the review panel', async () => {
+    const { clampListWidth } = await import('../../src/ui/workbench/Workbench');
+    expect(clampListWidth(100, 1400)).toBe(280);
+    expect(clampListWidth(700, 1400)).toBe(700);
+    expect(clampListWidth(1300, 1400)).toBe(1400 - 480);
+  });
+
+  it('the splitter widens the list by keyboard, and the width is kept for the next page', async () => {
+    const { session, db } = await batch(['a.txt']);
+    render(<App services={{ session, review: fakeReview() }} />);
+    await screen.findByText('200 px');
+    const splitter = screen.getByTestId('list-splitter');
+    const body = splitter.parentElement!;
+    Object.defineProperty(body, 'clientWidth', { value: 1400, configurable: true });
+    fireEvent.keyDown(splitter, { key: 'ArrowRight' });
+    fireEvent.keyDown(splitter, { key: 'ArrowRight' });
+    const w = Number(splitter.getAttribute('aria-valuenow'));
+    expect(w).toBeGreaterThan(280);
+    expect(body.style.getPropertyValue('--list-width')).toBe(`${w}px`);
+    await waitUntil(() => session.savedView()?.listWidthPx === w, 'width saved');
+    cleanup();
+    db.close();
+  });
+});

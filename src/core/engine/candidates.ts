@@ -94,7 +94,7 @@ export function scoreMinimum(
   const f = scan.family;
   const full = ws.binnedVectors(f, 'full', scoreBinning, () => binVectors(f.vectors, f.kStart, scoreBinning));
   const v = scanVertex(scan, s);
-  const fit = evaluateAt(scoring, full.vectors, full.kStart, f.nonNegative, Math.round(v.fineShift / scoreBinning));
+  const fit = evaluateAt(scoring, full.vectors, full.kStart, f.nonNegative, Math.round(v.fineShift / scoreBinning), f.polynomialFromA);
   const z = zOfShift(v.fineShift, DLOG10);
   const zErr = v.sigma * dzPerPixel(z, DLOG10) * Math.sqrt(reducedChi2(fit, scoring.nGood));
   const atEdge = (range.edgeLo && v.fineShift <= range.lo + scan.binning) || (range.edgeHi && v.fineShift >= range.hi - scan.binning);
@@ -116,7 +116,7 @@ export function refineCandidate(fineGrid: GridData, fine: WeightedData, c: Score
   const combined = combination(f.vectors, c.fit.amplitudes);
   const raw = f.class === 'qso' ? polyBasis(fineGrid.flux.length, fine.q.length) : [];
   const dataAt = f.class === 'qso' ? (s: number) => withForestVariance(fineGrid, combined, f.kStart, s, fine.q.length, raw) : () => fine;
-  const m = refineOnFine(dataAt, combined, f.kStart, c.fineShift, c.range.lo, c.range.hi);
+  const m = refineOnFine(dataAt, combined, f.kStart, c.fineShift, c.range.lo, c.range.hi, f.polynomialFromA);
   if (!Number.isFinite(m.sigmaShift)) return c; // no curvature on the fine grid: keep the scan's estimate
   const z = zOfShift(m.shift, DLOG10);
   const red = Math.max(1, m.chi2 / Math.max(1, fine.nGood - c.fit.nParams));

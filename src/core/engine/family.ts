@@ -19,6 +19,11 @@ export interface Family {
   /** The fast scan's vectors (combinations of `vectors`). */
   scanVectors: Float64Array[];
   scanNonNegative: boolean[];
+  /** The continuum polynomial of the full model acts only at rest wavelengths >= this, Angstrom (none: everywhere). */
+  polynomialFromA?: number;
+  /** Which vectors are eigenspectra, and the library's effective dimension (classify.ts). */
+  eigen: boolean[];
+  eigenDims: number;
 }
 
 export function familyFromBasis(b: FamilyBasis): Family {
@@ -44,6 +49,9 @@ export function familyFromBasis(b: FamilyBasis): Family {
     nonNegative: b.vectors.map((v) => v.nonNegative),
     scanVectors,
     scanNonNegative: b.scan.map((s) => Object.keys(s.weights).every((id) => byId.get(id)!.nonNegative)),
+    polynomialFromA: b.polynomialFromA,
+    eigen: b.vectors.map((v) => v.eigen === true),
+    eigenDims: b.eigenDims ?? 0,
   };
 }
 

@@ -13,7 +13,7 @@ import type { Candidate, ChiSquareCurve, FitResult, LineMeasurement, Spectrum, S
 import { failedResult } from '../failedResult';
 import { publishedFamilies } from '../templates';
 import { distinctKms, fineRange, refineCandidate, scanMinima, scoreMinimum, type ScoredCandidate } from './candidates';
-import { chi2Scale, rankingScore } from './classify';
+import { chargedParams, chi2Scale, rankingScore } from './classify';
 import { confidenceFeatures, confidenceScore, gradeOf } from './confidence';
 import { familyFromBasis, type Family } from './family';
 import { countFeatures } from './features';
@@ -151,7 +151,7 @@ function rankAll(cands: ScoredCandidate[], nGood: number): { ranked: Ranked[]; s
   if (cands.length === 0) return { ranked: [], scale: 1 };
   const byChi2 = [...cands].sort((a, b) => a.fit.chi2 - b.fit.chi2);
   const scale = chi2Scale(byChi2[0].fit, nGood);
-  const ranked = cands.map((c) => ({ c, rank: rankingScore(c.fit, scale, nGood) }));
+  const ranked = cands.map((c) => ({ c, rank: rankingScore({ chi2: c.fit.chi2, nParams: chargedParams(c.family, c.fit) }, scale, nGood) }));
   ranked.sort((a, b) => Number(a.c.atEdge) - Number(b.c.atEdge) || a.rank - b.rank);
   return { ranked, scale };
 }

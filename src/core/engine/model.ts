@@ -16,10 +16,18 @@ export interface ModelFit {
   polyCoeffs: Float64Array;
   /** Free parameters used: template amplitudes in play plus polynomial terms. */
   nParams: number;
+  /** When set, the polynomial was switched off at rest pixels below this absolute index (data's grid). */
+  polyFromK?: number;
 }
 
-/** vectors: arrays whose element 0 sits at absolute pixel kStart (on the data's grid); shift in the data's pixels. */
-export function evaluateAt(data: WeightedData, vectors: Float64Array[], kStart: number, nonNegative: readonly boolean[], shift: number): ModelFit {
+/**
+ * vectors: arrays whose element 0 sits at absolute pixel kStart (on the
+ * data's grid); shift in the data's pixels. polyFromA: the continuum
+ * polynomial acts only at rest wavelengths >= this (a quasar has no flux of
+ * its own below the Lyman limit, so no free continuum may put any there).
+ */
+export function evaluateAt(data: WeightedData, vectors: Float64Array[], kStart: number, nonNegative: readonly boolean[], shift: number, polyFromA?: number): ModelFit {
+  if (polyFromA !== undefined) return evaluateGatedAt(data, vectors, kStart, nonNegative, shift, Math.ceil(Math.log10(polyFromA) / data.dlog10));
   const K = vectors.length;
   const P = data.q.length;
   const solver = makeShiftSolver(K, P);
@@ -54,6 +62,39 @@ export function evaluateAt(data: WeightedData, vectors: Float64Array[], kStart: 
   return { shift, chi2, amplitudes, polyCoeffs, nParams: solver.used + P };
 }
 
+/** evaluateAt with the polynomial gated: it becomes P ordinary columns q_a(i) [rest pixel >= polyFromK], solved together with the vectors. */
+function evaluateGatedAt(data: WeightedData, vectors: Float64Array[], kStart: number, nonNegative: readonly boolean[], shift: number, polyFromK: number): ModelFit {
+  const K = vectors.length;
+  const P = data.q.length;
+  const M = K + P;
+  const solver = makeShiftSolver(M, 0);
+  const { tt, tf } = solver;
+  const nT = vectors[0].length;
+  const row = new Float64Array(M);
+  const n = data.w.length;
+  let F = 0;
+  for (let i = 0; i < n; i++) {
+    const w = data.w[i];
+    if (!(w > 0)) continue;
+    const f = data.flux[i];
+    F += w * f * f;
+    const t = data.d0 + i - shift - kStart;
+    const inT = t >= 0 && t < nT;
+    for (let j = 0; j < K; j++) row[j] = inT ? vectors[j][t] : 0;
+    const on = data.d0 + i - shift >= polyFromK ? 1 : 0;
+    for (let a = 0; a < P; a++) row[K + a] = on * data.q[a][i];
+    for (let j = 0; j < M; j++) {
+      const wr = w * row[j];
+      if (wr === 0) continue;
+      for (let l = 0; l <= j; l++) tt[j * M + l] += wr * row[l];
+      tf[j] += wr * f;
+    }
+  }
+  const nonNeg = [...nonNegative, ...new Array(P).fill(false)];
+  const chi2 = solveShift(solver, new Float64Array(0), F, nonNeg);
+  return { shift, chi2, amplitudes: solver.a.slice(0, K), polyCoeffs: solver.a.slice(K), nParams: solver.used, polyFromK };
+}
+
 /** The model on the data's pixels (NaN where no template covers). */
 export function modelOnData(data: WeightedData, vectors: Float64Array[], kStart: number, fit: ModelFit): Float64Array {
   const n = data.w.length;
@@ -63,7 +104,8 @@ export function modelOnData(data: WeightedData, vectors: Float64Array[], kStart:
     const t = data.d0 + i - fit.shift - kStart;
     let m = 0;
     if (t >= 0 && t < nT) for (let j = 0; j < vectors.length; j++) m += fit.amplitudes[j] * vectors[j][t];
-    for (let a = 0; a < data.q.length; a++) m += fit.polyCoeffs[a] * data.q[a][i];
+    const on = fit.polyFromK === undefined || data.d0 + i - fit.shift >= fit.polyFromK ? 1 : 0;
+    for (let a = 0; a < data.q.length; a++) m += on * fit.polyCoeffs[a] * data.q[a][i];
     out[i] = m;
   }
   return out;

@@ -31,7 +31,7 @@ export function solutionModel(spectrum: Spectrum, z: number, family: string, pol
   const prep = prepareData(spectrum);
   if (typeof prep === 'string') return out;
   const data = weightedData(prep.fine, 1, polyTerms, false);
-  const fit = evaluateAt(data, fam.vectors, fam.kStart, fam.nonNegative, Math.round(shiftOfZ(z, DLOG10)));
+  const fit = evaluateAt(data, fam.vectors, fam.kStart, fam.nonNegative, Math.round(shiftOfZ(z, DLOG10)), fam.polynomialFromA);
   const model = modelOnData(data, fam.vectors, fam.kStart, fit);
   const n = model.length;
   for (let i = 0; i < wl.length; i++) {

@@ -9,8 +9,10 @@ export interface EncodedFamily {
   zMax: number;
   kStart: number;
   length: number;
-  vectors: ({ id: string; nonNegative: boolean } & EncodedVector)[];
+  vectors: ({ id: string; nonNegative: boolean; eigen?: boolean } & EncodedVector)[];
   scan: { id: string; weights: Record<string, number> }[];
   sources: string[];
   heldFraction: number;
+  polynomialFromA?: number;
+  eigenDims?: number;
 }

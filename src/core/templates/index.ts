@@ -18,10 +18,12 @@ export function decodeFamily(e: EncodedFamily): FamilyBasis {
     zMin: e.zMin,
     zMax: e.zMax,
     kStart: e.kStart,
-    vectors: e.vectors.map((v) => ({ id: v.id, nonNegative: v.nonNegative, values: decodeVector(v, e.length) })),
+    vectors: e.vectors.map((v) => ({ id: v.id, nonNegative: v.nonNegative, eigen: v.eigen, values: decodeVector(v, e.length) })),
     scan: e.scan,
     sources: e.sources,
     heldFraction: e.heldFraction,
+    polynomialFromA: e.polynomialFromA,
+    eigenDims: e.eigenDims,
   };
 }
 

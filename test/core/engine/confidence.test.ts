@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { confidenceFeatures, confidenceScore, gradeOf, HIGH_MIN, HIGH_MIN_FEATURES, LOW_MIN, MEDIUM_MIN } from '../../../src/core/engine/confidence';
 
-const base = { cls: 'galaxy' as const, chi2Gap: 50, nFeatures: 2, featureSnrs: [8, 5], atEdge: false };
+const base = { cls: 'galaxy' as const, chi2Gap: 50, nFeatures: 2, featureSnrs: [8, 5], atEdge: false, medianSnr: 5 };
 
 describe('confidenceScore', () => {
   it('rises with the chi-square gap, the number of features and their S/N', () => {

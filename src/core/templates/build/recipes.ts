@@ -6,7 +6,7 @@
  */
 import type { SpectrumClass } from '../../types';
 import { C_KMS, KMS_PER_PIXEL, DLOG10 } from '../../engine/logGrid';
-import { restWavelengthA } from '../../lines/catalogue';
+import { LYMAN_LIMIT_A, restWavelengthA } from '../../lines/catalogue';
 import { eigenspectra } from './eigenspectra';
 import type { TemplateTable } from './readTemplateCsv';
 import { broadenLog, interpolateGaps, toLogGrid } from './toLogGrid';
@@ -16,6 +16,8 @@ export interface BasisVectorData {
   values: Float64Array;
   /** Amplitude kept >= 0 in fits (emission lines); eigenspectra are signed. */
   nonNegative: boolean;
+  /** An eigenspectrum (its family's shape freedom is counted as eigenDims, classify.ts). */
+  eigen?: boolean;
 }
 
 export interface FamilyBasis {
@@ -32,9 +34,30 @@ export interface FamilyBasis {
   sources: string[];
   /** Fraction of the library's sum of squares the eigenspectra hold (1 when not eigenspectra). */
   heldFraction: number;
+  /** Each eigenspectrum's fraction of that sum of squares (empty when not eigenspectra). */
+  eigenFractions?: number[];
+  /**
+   * The library's effective shape dimension: eigenspectra needed to hold
+   * EIGEN_DIMS_FRACTION of its sum of squares. The higher ones stay in the
+   * model (fine detail for z) but are not charged as free parameters.
+   */
+  eigenDims?: number;
+  /** The continuum polynomial acts only at rest wavelengths >= this, Angstrom (absent: everywhere). */
+  polynomialFromA?: number;
 }
 
 const kOf = (lambdaA: number) => Math.round(Math.log10(lambdaA) / DLOG10);
+
+/** See FamilyBasis.eigenDims: 99 % (the first eigenspectra of a library are its real dimensions, e.g. temperature and gravity for stars). */
+export const EIGEN_DIMS_FRACTION = 0.99;
+function eigenDimsOf(fractions: number[]): number {
+  let c = 0;
+  for (let k = 0; k < fractions.length; k++) {
+    c += fractions[k];
+    if (c >= EIGEN_DIMS_FRACTION) return k + 1;
+  }
+  return fractions.length;
+}
 
 /** Stars: radial velocities within +-1000 km/s (docs/reference.md sec. 6 gives |v| < ~300-500 km/s; a margin added). */
 export const STAR_VMAX_KMS = 1000;
@@ -69,10 +92,12 @@ export function buildStarFamily(stars: TemplateTable[]): FamilyBasis {
     zMin: -STAR_VMAX_KMS / C_KMS,
     zMax: STAR_VMAX_KMS / C_KMS,
     kStart: kLo,
-    vectors: [...eig.vectors.map((v, i) => ({ id: `star eigen ${i + 1}`, values: v, nonNegative: false })), { id: 'Balmer emission', values: active, nonNegative: true }],
+    vectors: [...eig.vectors.map((v, i) => ({ id: `star eigen ${i + 1}`, values: v, nonNegative: false, eigen: true })), { id: 'Balmer emission', values: active, nonNegative: true }],
     scan: eig.vectors.slice(0, STAR_SCAN_EIGEN).map((_, i) => ({ id: `star eigen ${i + 1}`, weights: { [`star eigen ${i + 1}`]: 1 } })),
     sources: stars.map((t) => t.name),
     heldFraction: eig.fractions.reduce((a, b) => a + b, 0),
+    eigenFractions: eig.fractions,
+    eigenDims: eigenDimsOf(eig.fractions),
   };
 }
 
@@ -152,7 +177,7 @@ export function buildGalaxyFamily(galaxies: TemplateTable[]): FamilyBasis {
     zMin: GALAXY_Z_MIN,
     zMax: 1.6,
     kStart: kLo,
-    vectors: [...eig.vectors.map((v, i) => ({ id: eigenIds[i], values: v, nonNegative: false })), ...emission],
+    vectors: [...eig.vectors.map((v, i) => ({ id: eigenIds[i], values: v, nonNegative: false, eigen: true })), ...emission],
     scan: [
       ...eigenIds.slice(0, GALAXY_SCAN_EIGEN).map((id) => ({ id, weights: { [id]: 1 } })),
       // [O II] at a ratio of 1.4 (3730/3727 ~ 1.4 at low density, from memory); then the other nebular groups at typical strengths.
@@ -161,6 +186,8 @@ export function buildGalaxyFamily(galaxies: TemplateTable[]): FamilyBasis {
     ],
     sources: galaxies.map((t) => t.name),
     heldFraction: eig.fractions.reduce((a, b) => a + b, 0),
+    eigenFractions: eig.fractions,
+    eigenDims: eigenDimsOf(eig.fractions),
   };
 }
 
@@ -186,13 +213,7 @@ const LYA_A = restWavelengthA('LyA');
 const STITCH_A = 2600;
 
 /** Either composite may be left out (held-out tests): the other then serves the whole range. */
-/**
- * host: the galaxy family's first eigenspectrum (a mean galaxy) on its own
- * grid: low-redshift quasars show their host's starlight (Vanden Berk et
- * al. 2001 note it in their composite), and without it a broad-line AGN in a
- * bright host is fitted better by a galaxy.
- */
-export function buildQsoFamily(vandenBerkIn: TemplateTable | null, selsingIn: TemplateTable | null, host?: { kStart: number; values: Float64Array }): FamilyBasis {
+export function buildQsoFamily(vandenBerkIn: TemplateTable | null, selsingIn: TemplateTable | null): FamilyBasis {
   const kLo = kOf(800);
   const kHi = kOf(11000);
   const n = kHi - kLo + 1;
@@ -228,18 +249,20 @@ export function buildQsoFamily(vandenBerkIn: TemplateTable | null, selsingIn: Te
   // mean transmission of any redshift is reachable but flux is never added there.
   const forest = composite.map((v, j) => (Math.pow(10, (kLo + j) * DLOG10) < LYA_A ? -v : 0));
   const groupIds = QSO_GROUPS.map((g) => g.id);
-  const hostVectors: BasisVectorData[] = [];
-  if (host) {
-    // on the quasar grid, faded in over 2500-3500 A (a host's ultraviolet light is negligible next to a quasar's)
-    const v = new Float64Array(n);
-    for (let j = 0; j < n; j++) {
-      const h = host.values[kLo + j - host.kStart];
-      if (h === undefined) continue;
-      const lam = Math.pow(10, (kLo + j) * DLOG10);
-      v[j] = h * Math.min(1, Math.max(0, (lam - 2500) / 1000));
-    }
-    hostVectors.push({ id: 'host galaxy', values: v, nonNegative: true });
+  // Light below the Lyman limit when no optically thick system blocks it: the
+  // composite's continuum level at 1000-1100 A carried on as f_lambda ~ lambda^-1.56
+  // (Vanden Berk et al. 2001; docs/reference.md sec. 6), amplitude >= 0.
+  let level = 0;
+  let count = 0;
+  for (let j = kOf(1000) - kLo; j <= kOf(1100) - kLo; j++) {
+    level += continuum[j];
+    count++;
   }
+  level /= count;
+  const leak = composite.map((_, j) => {
+    const lam = Math.pow(10, (kLo + j) * DLOG10);
+    return lam < LYMAN_LIMIT_A ? level * Math.pow(lam / 1000, -1.56) : 0;
+  });
   return {
     id: 'qso',
     class: 'qso',
@@ -251,7 +274,7 @@ export function buildQsoFamily(vandenBerkIn: TemplateTable | null, selsingIn: Te
       { id: 'forest absorption', values: forest, nonNegative: true },
       ...groups,
       { id: 'C IV shift', values: civShift, nonNegative: false },
-      ...hostVectors,
+      { id: 'Lyman continuum leak', values: leak, nonNegative: true },
     ],
     scan: [
       { id: 'composite', weights: { composite: 1 } },
@@ -260,6 +283,9 @@ export function buildQsoFamily(vandenBerkIn: TemplateTable | null, selsingIn: Te
     ],
     sources: [...new Set([vandenBerk.name, selsing.name])],
     heldFraction: 1,
+    // Below the Lyman limit a quasar's own light is absorbed by any optically thick
+    // system on the way (the composite keeps what little comes through): no free continuum there.
+    polynomialFromA: LYMAN_LIMIT_A,
   };
 }
 

@@ -24,7 +24,7 @@ export interface SpectrumViewProps {
   model?: Float64Array | null;
   /** Redshift the markers and the rest-frame axis use; null = none yet (no markers). */
   z: number | null;
-  markers: LineMarker[];
+  markers: readonly LineMarker[];
   /** Night-sky regions in observed vacuum Angstrom. */
   skyRegions: SkyRegion[];
   /** Boxcar width, pixels (1 = raw). */
@@ -40,7 +40,7 @@ export interface SpectrumViewProps {
   /** Flux unit for the readout and axis title, as the file gives it. */
   fluxUnit?: string;
   /** A second solution to compare with: its model (dashed) and its line markers (ticks from the bottom). */
-  compare?: { z: number; markers: LineMarker[]; model: Float64Array | null } | null;
+  compare?: { z: number; markers: readonly LineMarker[]; model: Float64Array | null } | null;
 }
 
 /** Default plot height, CSS px. */

@@ -4,7 +4,7 @@
  * without rendering.
  */
 import type { Candidate, FitResult, Grade, HowSet, LineMeasurement, ReviewDecision, SpectrumClass } from '../../core/types';
-import { lineById } from '../../core/lines/catalogue';
+import { classHasLine, classOfLine } from '../../core/lines/classLines';
 import type { ReviewFlag } from './flags';
 
 export interface Solution {
@@ -86,16 +86,13 @@ export function solutionFromDecision(d: ReviewDecision, result: FitResult | null
 }
 
 /**
- * The class a named line speaks for: the shown class when its markers hold
- * the line, else the first class whose lines include it (broad lines: quasar;
- * narrow emission or stellar absorption: galaxy).
+ * The class a named line speaks for: the shown class when its lines hold the
+ * line, else the class the line defines (core's rule, src/core/lines/classLines.ts:
+ * broad lines quasar; narrow emission or absorption features galaxy).
  */
-export function classForLine(lineId: string, current: SpectrumClass, hasLine: (cls: SpectrumClass, lineId: string) => boolean): SpectrumClass {
-  if (current !== 'unknown' && hasLine(current, lineId)) return current;
-  const roles = lineById(lineId)?.roles ?? [];
-  if (roles.includes('qso-broad')) return 'qso';
-  if (roles.includes('narrow') || roles.includes('absorption')) return 'galaxy';
-  return current;
+export function classForLine(lineId: string, current: SpectrumClass): SpectrumClass {
+  if (current !== 'unknown' && classHasLine(current, lineId)) return current;
+  return classOfLine(lineId) ?? current;
 }
 
 /**

@@ -14,7 +14,6 @@ import { useServices } from '../state/SessionContext';
 import type { Row } from '../state/session';
 import { fmtZ } from '../format';
 import { flagsOf, isReviewFlag, toggleFlag, type ReviewFlag } from './flags';
-import { markersFor } from './markers';
 import { describeHow } from './SolutionLine';
 import {
   acceptDraft,
@@ -350,7 +349,7 @@ export function useReviewSession({ row, onDecision }: ReviewSessionOptions): Rev
       setNaming(null);
       setMessage(null);
       touch();
-      const cls = classForLine(s.lineId, solution?.cls ?? result?.class ?? 'unknown', (c, id) => markersFor(c).some((m) => m.id === id));
+      const cls = classForLine(s.lineId, solution?.cls ?? result?.class ?? 'unknown');
       setSolution(lineSolution(s, observedA, f?.centreErrA ?? NaN, cls));
     },
     [naming, solution, result],

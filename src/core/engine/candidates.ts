@@ -14,9 +14,7 @@ import { dzPerPixel, pixelsOfVelocity, shiftOfZ, zOfShift, DLOG10 } from './logG
 import { parabolaVertex } from './parabola';
 import { refineOnFine } from './refine';
 import type { FamilyScan } from './scan';
-import { weightedData, type WeightedData } from './scanData';
-import { polyBasis } from './polynomial';
-import type { GridData } from './prepare';
+import type { WeightedData } from './scanData';
 import { restWavelengthA } from '../lines/catalogue';
 
 const LYA_A = restWavelengthA('LyA');
@@ -111,11 +109,12 @@ function reducedChi2(fit: ModelFit, nGood: number): number {
  * held as one vector, walked to the chi2 minimum (refine.ts). z error from
  * the curvature, scaled by the square root of the reduced chi2 when above 1.
  */
-export function refineCandidate(fineGrid: GridData, fine: WeightedData, c: ScoredCandidate): ScoredCandidate {
+export function refineCandidate(fine: WeightedData, c: ScoredCandidate): ScoredCandidate {
   const f = c.family;
   const combined = combination(f.vectors, c.fit.amplitudes);
-  const raw = f.class === 'qso' ? polyBasis(fineGrid.flux.length, fine.q.length) : [];
-  const dataAt = f.class === 'qso' ? (s: number) => withForestVariance(fineGrid, combined, f.kStart, s, fine.q.length, raw) : () => fine;
+  // the forest's variance needs the gated evaluation (see withForestVariance), which quasars use
+  const forest = f.class === 'qso' && f.polynomialFromA !== undefined;
+  const dataAt = forest ? (s: number) => withForestVariance(fine, combined, f.kStart, s) : () => fine;
   const m = refineOnFine(dataAt, combined, f.kStart, c.fineShift, c.range.lo, c.range.hi, f.polynomialFromA);
   if (!Number.isFinite(m.sigmaShift)) return c; // no curvature on the fine grid: keep the scan's estimate
   const z = zOfShift(m.shift, DLOG10);
@@ -134,19 +133,24 @@ export function refineCandidate(fineGrid: GridData, fine: WeightedData, c: Score
  */
 export const FOREST_FLUX_RMS = 0.3;
 
-/** Fine data with the forest's variance added blueward of Ly-alpha for a quasar template at shift s. */
-function withForestVariance(fine: GridData, combined: Float64Array, kStart: number, s: number, P: number, raw: Float64Array[]): WeightedData {
+/**
+ * Fine data with the forest's variance added blueward of Ly-alpha for a
+ * quasar template at shift s. Only the weights change: valid for the gated
+ * evaluation (model.ts), which solves the polynomial as ordinary columns and
+ * so needs neither orthonormal polynomials nor the precomputed sums.
+ */
+function withForestVariance(fine: WeightedData, combined: Float64Array, kStart: number, s: number): WeightedData {
   const kLya = Math.log10(LYA_A) / DLOG10;
-  const ivar = Float64Array.from(fine.ivar);
+  const w = Float64Array.from(fine.w);
   const f2 = FOREST_FLUX_RMS * FOREST_FLUX_RMS;
-  for (let i = 0; i < ivar.length; i++) {
-    const t = fine.k0 + i - s - kStart;
+  for (let i = 0; i < w.length; i++) {
+    const t = fine.d0 + i - s - kStart;
     if (t + kStart >= kLya) break;
-    if (!(ivar[i] > 0) || t < 0 || t >= combined.length) continue;
+    if (!(w[i] > 0) || t < 0 || t >= combined.length) continue;
     const c = Math.max(0, combined[t]);
-    ivar[i] = 1 / (1 / ivar[i] + f2 * c * c);
+    w[i] = 1 / (1 / w[i] + f2 * c * c);
   }
-  return weightedData({ k0: fine.k0, flux: fine.flux, ivar }, 1, P, false, raw);
+  return { ...fine, w };
 }
 
 /** Fine shift range of a family (whole pixels), capped at zMax. */

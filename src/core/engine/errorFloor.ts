@@ -9,7 +9,11 @@
  *   2016, ApJ 831, 7; docs/reference.md sec. 6). The floor is the smallest of
  *   these among the lines inside the data at the solution ([O III] only when
  *   the narrow-line vector is in use); Ly-alpha alone takes the C IV value.
- * - Galaxies and stars: none here (their curvature error is scaled instead).
+ * - Galaxies: GALAXY_FLOOR_KMS; stars: STAR_FLOOR_KMS. Template mismatch
+ *   (Kinney-Calzetti zero points known to ~1 A, Pickles at R ~ 500, fixed line
+ *   ratios) that the curvature does not know about. Set by
+ *   scripts/calibrate-confidence.ts so that the median |dz|/z_err over the
+ *   three sources pooled is 0.674, the Gaussian value.
  * The resampling onto the log grid needs no factor of its own on the
  * simulations (already on the grid); for coarser-pixel inputs the reduced
  * chi-square scaling partly covers it. Not verified on real spectra.
@@ -27,8 +31,13 @@ export const QSO_LINE_FLOORS: readonly { id: string; restA: number; kms: number 
   { id: 'LyA', restA: 1215.67, kms: 415 },
 ];
 
-/** Floor in km/s for a solution whose data span lambdaMinA..lambdaMaxA (observed, Angstrom): quasars only. */
+export const GALAXY_FLOOR_KMS = 21;
+export const STAR_FLOOR_KMS = 35;
+
+/** Floor in km/s for a solution whose data span lambdaMinA..lambdaMaxA (observed, Angstrom). */
 export function floorKms(c: ScoredCandidate, lambdaMinA: number, lambdaMaxA: number): number {
+  if (c.family.class === 'galaxy') return GALAXY_FLOOR_KMS;
+  if (c.family.class === 'star') return STAR_FLOOR_KMS;
   if (c.family.class !== 'qso') return 0;
   let best = Infinity;
   for (const l of QSO_LINE_FLOORS) {

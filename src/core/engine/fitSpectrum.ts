@@ -137,7 +137,7 @@ function refineBest(p: Prepared, ranked: Ranked[]): Ranked[] {
   return ranked.map((r, i) => {
     const first = !seen.has(r.c.family.class);
     seen.add(r.c.family.class);
-    return i < REFINE_TOP || first ? { c: refineCandidate(p.data.fine, p.fine, r.c), rank: r.rank } : r;
+    return i < REFINE_TOP || first ? { c: refineCandidate(p.fine, r.c), rank: r.rank } : r;
   });
 }
 

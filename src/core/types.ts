@@ -165,6 +165,31 @@ export type ReviewState = 'unreviewed' | 'accepted' | 'changed' | 'rejected';
 /** How the final redshift was set. */
 export type HowSet = 'auto' | 'candidate' | 'line' | 'typed' | 'refit';
 
+/**
+ * Review flags: problems a reviewer marks on a spectrum, beside the redshift
+ * and the grade. The id is what sessions store and the review_flags column
+ * writes; this order is the order everywhere (stored lists, exported cells).
+ */
+export const REVIEW_FLAGS = [
+  { id: 'broad-absorption', label: 'Broad absorption troughs (BAL)' },
+  { id: 'sky-residuals', label: 'Sky or telluric residuals spoil part of the spectrum' },
+  { id: 'low-snr', label: 'Low S/N' },
+  { id: 'partial-coverage', label: 'Partial coverage: key lines outside the range or masked' },
+  { id: 'blend', label: 'Possible blend or two objects in the spectrum' },
+] as const;
+
+export type ReviewFlag = (typeof REVIEW_FLAGS)[number]['id'];
+
+export function isReviewFlag(v: unknown): v is ReviewFlag {
+  return typeof v === 'string' && REVIEW_FLAGS.some((f) => f.id === v);
+}
+
+/** A list of flags once each, in REVIEW_FLAGS order; words that are no flag are dropped. */
+export function orderedReviewFlags(flags: readonly unknown[] | undefined | null): ReviewFlag[] {
+  if (!Array.isArray(flags)) return [];
+  return REVIEW_FLAGS.map((f) => f.id).filter((id) => flags.includes(id));
+}
+
 /** A reviewer's decision on one spectrum; the automatic solution stays in the FitResult. */
 export interface ReviewDecision {
   file: string;
@@ -179,8 +204,16 @@ export interface ReviewDecision {
   /** ISO 8601 time of the decision. */
   decidedAt: string;
   note: string;
-  /** When set through a line identification: which catalogue line at which observed wavelength. */
+  /**
+   * When set through a line identification (how_set line, or a refit started
+   * there): which catalogue line, at which observed vacuum wavelength (Angstrom).
+   */
   lineId?: { id: string; observedA: number };
+  /**
+   * Review flags, each once, in REVIEW_FLAGS order. Absent means none
+   * (decisions stored before flags were part of the decision, and unflagged ones).
+   */
+  flags?: ReviewFlag[];
 }
 
 /** Lambda-CDM parameters; H0 in km/s/Mpc. omegaLambda = 1 - omegaM - omegaK - omegaR. */

@@ -3,7 +3,7 @@ import { describe, it, expect, afterEach, vi } from 'vitest';
 import { render, screen, fireEvent, cleanup } from '@testing-library/react';
 import { buildExport } from '../../src/ui/export/buildExport';
 import { DEFAULT_COSMOLOGY } from '../../src/core/cosmology';
-import { parseCatalogueCsv } from '../../src/core/table';
+import { CATALOGUE_COLUMNS, catalogueRow, parseCatalogueCsv } from '../../src/core/table';
 import { makeResult, makeFailed, makeDecision, textBytes } from './fixtures';
 import { fakeReview, makeSession, waitUntil, ScriptedFitter } from './harness';
 
@@ -63,15 +63,12 @@ describe('buildExport', () => {
   });
 });
 
-describe('review columns the UI adds: named line and flags', () => {
+describe('review columns from the core catalogue row: named line and flags', () => {
   const flagged = {
     rows: [
       {
         key: 'k1',
-        decision: {
-          ...makeDecision('one.fits', { state: 'changed', z: 5338.8 / 1549.48 - 1, howSet: 'line', lineId: { id: 'CIV', observedA: 5338.8 } }),
-          flags: ['broad-absorption', 'blend'],
-        } as ReturnType<typeof makeDecision>,
+        decision: makeDecision('one.fits', { state: 'changed', z: 5338.8 / 1549.48 - 1, howSet: 'line', lineId: { id: 'CIV', observedA: 5338.8 }, flags: ['broad-absorption', 'blend'] }),
       },
       { key: 'k3', decision: makeDecision('three.fits', { state: 'rejected', z: null, zErr: null }) },
     ],
@@ -82,6 +79,9 @@ describe('review columns the UI adds: named line and flags', () => {
     const built = await buildExport(flagged, 'csv', DEFAULT_COSMOLOGY, 'all', '2026-01-02T00:00:00Z');
     const parsed = parseCatalogueCsv(built.data as string);
     const cols = parsed.columns;
+    // The browser adds no columns of its own: its table is the core catalogue, cell for cell.
+    expect(cols).toEqual(CATALOGUE_COLUMNS.map((c) => c.name));
+    expect(parsed.rows[0]).toEqual(catalogueRow(results.get('k1')!, flagged.rows[0].decision, DEFAULT_COSMOLOGY));
     expect(cols.indexOf('line_id')).toBe(cols.indexOf('how_set') + 1);
     expect(cols.indexOf('review_flags')).toBe(cols.indexOf('note') + 1);
     expect(parsed.rows[0]).toMatchObject({ how_set: 'line', line_id: 'CIV', line_observed_a: '5338.800', review_flags: 'broad-absorption;blend' });

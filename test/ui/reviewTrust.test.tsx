@@ -300,7 +300,7 @@ describe('sessions', () => {
   async function savedSessionText(): Promise<{ text: string; files: string[] }> {
     const { session, db } = await batch(['s1.txt', 's2.txt']);
     const key = session.getSnapshot().rows[0].key;
-    await session.decide(key, { ...(await import('./fixtures')).makeDecision('s1.txt'), flags: ['blend'] } as Parameters<typeof session.decide>[1]);
+    await session.decide(key, (await import('./fixtures')).makeDecision('s1.txt', { flags: ['blend'] }));
     const text = await session.exportSession(false);
     db.close();
     return { text, files: ['s1.txt', 's2.txt'] };

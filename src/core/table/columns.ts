@@ -3,6 +3,10 @@
  * every export format, so that a column means the same thing everywhere.
  * Units live in the names and in `unit` (VOUnit spelling, '' = dimensionless).
  */
+import { REVIEW_FLAGS } from '../types';
+
+/** The review_flags column's description: every flag id with its meaning. */
+const FLAGS_DESCRIPTION = `Problems the reviewer marked, ';'-separated, in this order: ${REVIEW_FLAGS.map((f) => `${f.id} (${f.label})`).join(', ')}; empty when none or unreviewed`;
 
 /** text: free text or a code word; float: fixed decimals; int: integer; bool: 'true'/'false'. */
 export type ColumnType = 'text' | 'float' | 'int' | 'bool';
@@ -48,10 +52,13 @@ const DEFS = [
   { name: 'final_class', unit: '', type: 'text', group: 'review', ucd: 'src.class', description: 'Class set by the reviewer; empty when unreviewed' },
   { name: 'review_state', unit: '', type: 'text', group: 'review', description: 'unreviewed, accepted, changed or rejected' },
   { name: 'how_set', unit: '', type: 'text', group: 'review', description: 'How final_z was set: auto, candidate, line, typed or refit' },
+  { name: 'line_id', unit: '', type: 'text', group: 'review', description: "Catalogue line the reviewer named (how_set = line: final_z is that line's own redshift; refit: the refit started there); empty otherwise" },
+  { name: 'line_observed_a', unit: 'Angstrom', type: 'float', decimals: 3, group: 'review', ucd: 'em.wl', description: 'Observed vacuum wavelength of the named line (the fitted centre of the feature)' },
   { name: 'reviewer_grade', unit: '', type: 'text', group: 'review', ucd: 'meta.code.qual', description: "Reviewer's confidence grade: high, medium, low or none" },
   { name: 'reviewer', unit: '', type: 'text', group: 'review', description: 'Who reviewed the spectrum' },
   { name: 'reviewed_at', unit: '', type: 'text', group: 'review', description: 'Time of the review decision, ISO 8601' },
   { name: 'note', unit: '', type: 'text', group: 'review', ucd: 'meta.note', description: "Reviewer's note" },
+  { name: 'review_flags', unit: '', type: 'text', group: 'review', ucd: 'meta.code', description: FLAGS_DESCRIPTION },
   { name: 'derived_from', unit: '', type: 'text', group: 'derived', description: 'Which redshift the derived quantities use: final, auto, or empty when none apply (stars, negative z, rejected, failed)' },
   { name: 'lookback_gyr', unit: 'Gyr', type: 'float', decimals: 4, group: 'derived', description: 'Lookback time to the redshift' },
   { name: 'age_gyr', unit: 'Gyr', type: 'float', decimals: 4, group: 'derived', ucd: 'time.age', description: 'Age of the universe at the redshift' },

@@ -3,7 +3,7 @@
  * the command line build rows here, so a row is byte-identical wherever it is
  * made.
  */
-import type { CosmologyParams, FitResult, ReviewDecision, SpectrumClass } from '../types';
+import { orderedReviewFlags, type CosmologyParams, type FitResult, type ReviewDecision, type SpectrumClass } from '../types';
 import { derivedQuantities } from '../cosmology';
 import { AUTOMATIC_COLUMNS, CATALOGUE_COLUMNS, type ColumnDef, type ColumnName, type TableRow } from './columns';
 import { formatCell, type CellValue } from './formatCell';
@@ -90,15 +90,20 @@ export function catalogueRow(result: FitResult, decision: ReviewDecision | undef
   const decided = state === 'accepted' || state === 'changed';
   const review: Values = { review_state: state };
   if (decision) {
+    // The named line belongs to a redshift that was kept; flags to any decision made.
+    const line = decided && decision.z !== null ? decision.lineId : undefined;
     Object.assign(review, {
       final_z: decided ? decision.z : undefined,
       final_z_err: decided ? decision.zErr : undefined,
       final_class: state === 'unreviewed' ? '' : decision.class,
       how_set: state === 'unreviewed' ? '' : decision.howSet,
+      line_id: line?.id ?? '',
+      line_observed_a: line?.observedA,
       reviewer_grade: decision.reviewerGrade ?? '',
       reviewer: decision.reviewer,
       reviewed_at: decision.decidedAt,
       note: decision.note,
+      review_flags: state === 'unreviewed' ? '' : orderedReviewFlags(decision.flags).join(';'),
     } satisfies Values);
   }
   let derived: Values;

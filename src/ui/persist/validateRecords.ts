@@ -3,8 +3,7 @@
  * session file). Each check returns a list of problems, empty when the
  * record is sound; nothing from the file is used before it passes.
  */
-import type { FitResult, ReviewDecision } from '../../core/types';
-import { isReviewFlag } from '../review/flags';
+import { isReviewFlag, type FitResult, type ReviewDecision } from '../../core/types';
 
 const STATES = ['unreviewed', 'accepted', 'changed', 'rejected'];
 const HOW_SET = ['auto', 'candidate', 'line', 'typed', 'refit'];

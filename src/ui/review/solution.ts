@@ -3,9 +3,8 @@
  * decision built from it records. Pure, so the decision rules are tested
  * without rendering.
  */
-import type { Candidate, FitResult, Grade, HowSet, LineMeasurement, ReviewDecision, SpectrumClass } from '../../core/types';
+import { orderedReviewFlags, type Candidate, type FitResult, type Grade, type HowSet, type LineMeasurement, type ReviewDecision, type ReviewFlag, type SpectrumClass } from '../../core/types';
 import { classHasLine, classOfLine } from '../../core/lines/classLines';
-import type { ReviewFlag } from './flags';
 
 export interface Solution {
   z: number;
@@ -129,7 +128,7 @@ export function refitSolution(refit: FitResult, howSet: HowSet, fallbackZ: numbe
 }
 
 /** The decision parts the panel decides; reviewer and time are added when it is stored. */
-export type DecisionDraft = Omit<ReviewDecision, 'reviewer' | 'decidedAt'> & { flags?: ReviewFlag[] };
+export type DecisionDraft = Omit<ReviewDecision, 'reviewer' | 'decidedAt'>;
 
 /** Accept what is shown: 'accepted' when it is the automatic best, 'changed' otherwise. */
 export function acceptDraft(file: string, s: Solution, grade: Grade | null, note: string, flags: readonly ReviewFlag[] = []): DecisionDraft {
@@ -144,14 +143,14 @@ export function acceptDraft(file: string, s: Solution, grade: Grade | null, note
     note,
   };
   if (s.lineId) d.lineId = s.lineId;
-  if (flags.length) d.flags = [...flags];
+  if (flags.length) d.flags = orderedReviewFlags(flags);
   return d;
 }
 
 /** Reject as unusable: no redshift, class unknown. */
 export function rejectDraft(file: string, grade: Grade | null, note: string, flags: readonly ReviewFlag[] = []): DecisionDraft {
   const d: DecisionDraft = { file, state: 'rejected', z: null, zErr: null, class: 'unknown', reviewerGrade: grade, howSet: 'auto', note };
-  if (flags.length) d.flags = [...flags];
+  if (flags.length) d.flags = orderedReviewFlags(flags);
   return d;
 }
 

@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { AUTOMATIC_COLUMNS, CATALOGUE_COLUMNS, columnByName } from '../../../src/core/table/columns';
 
-// The column contract in DESIGN.md ("Contracts other parts rely on") and the task brief.
+// The column contract in DESIGN.md ("Contracts other parts rely on") and the task brief; issue 10 adds the named line and the review flags.
 const REQUIRED = [
   'file', 'object_id', 'ra_deg', 'dec_deg', 'z', 'z_err', 'class', 'confidence', 'score', 'chi2_gap', 'n_features',
   'runner_up_z', 'runner_up_class', 'runner_up_delta_chi2', 'noise_estimated', 'n_pix', 'lambda_min_a', 'lambda_max_a',
-  'error', 'final_z', 'final_z_err', 'final_class', 'review_state', 'how_set', 'reviewer_grade', 'reviewer',
-  'reviewed_at', 'note', 'lookback_gyr', 'age_gyr', 'lum_dist_mpc', 'dist_mod_mag', 'ang_diam_dist_mpc', 'kpc_per_arcsec',
+  'error', 'final_z', 'final_z_err', 'final_class', 'review_state', 'how_set', 'line_id', 'line_observed_a', 'reviewer_grade', 'reviewer',
+  'reviewed_at', 'note', 'review_flags', 'lookback_gyr', 'age_gyr', 'lum_dist_mpc', 'dist_mod_mag', 'ang_diam_dist_mpc', 'kpc_per_arcsec',
 ];
 
 describe('CATALOGUE_COLUMNS', () => {

@@ -50,7 +50,7 @@ describe('machine grade order, S/N, flags, names', () => {
     row(2, { grade: 'none', score: 0.95, snr: 30 }),
     row(3, { grade: 'low', score: 0.1, snr: 4 }),
     row(4, { status: 'failed', summary: summarise(makeFailed('f4', 'f4: empty file')) }),
-    row(5, { grade: 'medium', score: 0.3, decision: { ...makeDecision('f5.fits'), flags: ['sky-residuals'] } as Row['decision'] }),
+    row(5, { grade: 'medium', score: 0.3, decision: makeDecision('f5.fits', { flags: ['sky-residuals'] }) }),
   ];
 
   it('"low machine grade first" follows the grade order, then the score, failures last', () => {

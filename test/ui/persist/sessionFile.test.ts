@@ -113,6 +113,29 @@ describe('session file size', () => {
     if (back.ok) expect(Array.from(back.session.entries[0].result!.curves[0].deltaChi2)).toEqual([50, 0, 60]);
   });
 
+  it('decisions keep their flags and named line; files of earlier versions, written before flags were on the decision, still load', () => {
+    const withFlags = session();
+    withFlags.entries[0].decision = makeDecision('a.fits', { howSet: 'line', lineId: { id: 'CIV', observedA: 5338.8 }, flags: ['low-snr', 'blend'] });
+    const back = parseSession(encodeSession(withFlags));
+    expect(back.ok).toBe(true);
+    if (back.ok) expect(back.session.entries[0].decision).toMatchObject({ lineId: { id: 'CIV', observedA: 5338.8 }, flags: ['low-snr', 'blend'] });
+
+    // A version 1 file from before flags: the decision has no flags field at all.
+    const old = session({ version: 1 });
+    const v1 = JSON.stringify(old, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? { $num: String(v) } : v instanceof Float64Array ? { $f64: Array.from(v) } : v instanceof Uint8Array ? { $b64: 'AP8H' } : v));
+    expect(v1).not.toContain('"flags"');
+    const oldBack = parseSession(v1);
+    expect(oldBack.ok).toBe(true);
+    if (oldBack.ok) expect(oldBack.session.entries[0].decision!.flags).toBeUndefined();
+  });
+
+  it('refuses a decision with a word that is no review flag', () => {
+    const bad = session();
+    (bad.entries[0].decision as unknown as Record<string, unknown>).flags = ['low-snr', 'looks-odd'];
+    const r = parseSession(encodeSession(bad));
+    expect(r.ok === false && r.problems.join('\n')).toMatch(/decision.flags holds an unknown flag/);
+  });
+
   it('thinCurve keeps short curves as they are', () => {
     const short = thinCurve(Float64Array.from([0, 1, 2]), Float64Array.from([3, 0, 4]), 10);
     expect(Array.from(short.deltaChi2)).toEqual([3, 0, 4]);

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { metaFromHeaders, parseSexagesimal } from '../../../src/core/io/fits/meta';
+import { metaFromHeaders, objectIdFromHeaders, parseSexagesimal } from '../../../src/core/io/fits/meta';
+import { plateMjdFibreId } from '../../../src/core/io/objectId';
 import { readHeader } from '../../../src/core/io/fits/header';
 import { readFits } from '../../../src/core/io/fits/readFits';
 import { writeFitsFile, writeImageHdu, type FitsCardInput } from '../../../src/core/io/fits/write';
@@ -71,5 +72,47 @@ describe('metaFromHeaders(headers, fluxUnit)', () => {
     const cards: FitsCardInput[] = [['CRVAL1', 4000], ['CDELT1', 1], ['OBJECT', 'SMK-7'], ['OBJID', 99]];
     const s = readFits(writeFitsFile([writeImageHdu({ data: new Float32Array([1, 2]), cards })]), 'm.fits');
     expect(s.meta.objectId).toBe('SMK-7');
+  });
+});
+
+describe('object id from survey numbers (objectIdFromHeaders)', () => {
+  // Header values of the real file spec-0266-51630-0168.fits (test/data/real-spectra); the survey pads
+  // plate, MJD and fibre to 4, 5 and 4 digits in that file name.
+  it('builds plate-MJD-fibre, zero-padded, from PLATEID, MJD and FIBERID when no name keyword exists', () => {
+    expect(objectIdFromHeaders([headerOf([['PLATEID', 266], ['MJD', 51630], ['FIBERID', 168]])])).toBe('0266-51630-0168');
+  });
+  it('keeps every digit of wider numbers (spec-10656-58163-0366.fits)', () => {
+    expect(objectIdFromHeaders([headerOf([['PLATEID', 10656], ['MJD', 58163], ['FIBERID', 366]])])).toBe('10656-58163-0366');
+  });
+  it('takes PLATE and FIBER too, and numbers spread over the data and primary headers', () => {
+    const ext = headerOf([['FIBER', 7]]);
+    const primary = headerOf([['PLATE', '0412'], ['MJD', 51871]]);
+    expect(objectIdFromHeaders([ext, primary])).toBe('0412-51871-0007');
+  });
+  it('a name keyword wins over the numbers; the designation over an input-catalogue number', () => {
+    const numbers: FitsCardInput[] = [['PLATEID', 266], ['MJD', 51630], ['FIBERID', 168]];
+    expect(objectIdFromHeaders([headerOf([...numbers, ['OBJID', '1237648720693755918']])])).toBe('1237648720693755918');
+    expect(objectIdFromHeaders([headerOf([['OBJNAME', '258151458599632'], ['DESIG', 'LAMOST J063715.90+271356.5']])])).toBe('LAMOST J063715.90+271356.5');
+    expect(objectIdFromHeaders([headerOf([...numbers, ['TARGNAME', 'SMK-9']])])).toBe('SMK-9');
+  });
+  it('no id from incomplete or impossible numbers; OBSID is the last resort', () => {
+    expect(objectIdFromHeaders([headerOf([['PLATEID', 266], ['MJD', 51630]])])).toBeUndefined();
+    expect(objectIdFromHeaders([headerOf([['PLATEID', 266], ['MJD', 51630], ['FIBERID', -1]])])).toBeUndefined();
+    expect(objectIdFromHeaders([headerOf([['PLATEID', 266.5], ['MJD', 51630], ['FIBERID', 3]])])).toBeUndefined();
+    expect(objectIdFromHeaders([headerOf([['PLATEID', 'B6212'], ['MJD', 55863], ['FIBERID', 3], ['OBSID', 101003]])])).toBe('101003');
+  });
+  it('reaches the Spectrum through readFits', () => {
+    const cards: FitsCardInput[] = [['CRVAL1', 4000], ['CDELT1', 1], ['PLATEID', 266], ['MJD', 51630], ['FIBERID', 168]];
+    expect(readFits(writeFitsFile([writeImageHdu({ data: new Float32Array([1, 2]), cards })]), 'p.fits').meta.objectId).toBe('0266-51630-0168');
+  });
+});
+
+describe('plateMjdFibreId(plate, mjd, fibre)', () => {
+  it('accepts whole numbers as numbers, bigints or digit strings and refuses the rest', () => {
+    expect(plateMjdFibreId(1, 2, 3)).toBe('0001-00002-0003');
+    expect(plateMjdFibreId('266', 51630n, ' 168 ')).toBe('0266-51630-0168');
+    expect(plateMjdFibreId(266, 51630, 'x')).toBeUndefined();
+    expect(plateMjdFibreId(266, 51630, undefined)).toBeUndefined();
+    expect(plateMjdFibreId(266, Number.NaN, 3)).toBeUndefined();
   });
 });

@@ -78,9 +78,9 @@ describe('real survey FITS files (MANIFEST.tsv)', () => {
     });
   }
 
-  it('LAMOST metadata: OBJNAME, RA/DEC, DATE-OBS, EXPTIME, TELESCOP', () => {
+  it('LAMOST metadata: DESIG, RA/DEC, DATE-OBS, EXPTIME, TELESCOP', () => {
     const s = readFits(new Uint8Array(readFileSync(join(DATA, 'fits', 'spec-55862-B6212_sp06-003.fits'))), 'l.fits');
-    expect(s.meta).toMatchObject({ objectId: '258151458599632', raDeg: 99.316263, decDeg: 27.23237, dateObs: '2011-10-27T20:02:34.19', exposureS: 3600, instrument: 'LAMOST' });
+    expect(s.meta).toMatchObject({ objectId: 'LAMOST J063715.90+271356.5', raDeg: 99.316263, decDeg: 27.23237, dateObs: '2011-10-27T20:02:34.19', exposureS: 3600, instrument: 'LAMOST' });
   });
 
   it('SDSS metadata: object position from PLUG_RA/PLUG_DEC, flux unit from BUNIT', () => {

@@ -47,3 +47,19 @@ describe('parseAngleDeg(value, isRa)', () => {
     expect(parseAngleDeg('north', false)).toBeUndefined();
   });
 });
+
+describe('object id from plate, MJD and fibre comments', () => {
+  // Same rule and padding as the FITS headers (src/core/io/objectId.ts); numbers of the real file spec-0266-51630-0168.
+  it('builds plate-MJD-fibre when no name is given, in either comment style', () => {
+    expect(facts('plateid: 266', 'mjd: 51630', 'fiberid: 168').meta.objectId).toBe('0266-51630-0168');
+    expect(facts('PLATEID =                  266 / Current plate', 'MJD     =                51630 / MJD of observation', 'FIBERID =                  168 / Fiber ID (1-640)').meta.objectId).toBe('0266-51630-0168');
+  });
+  it('a name wins, wherever it stands; a designation is a name', () => {
+    expect(facts('plate: 266', 'mjd: 51630', 'fiber: 168', 'object: Q7').meta.objectId).toBe('Q7');
+    expect(facts('desig: LAMOST J063715.90+271356.5', 'mjd: 55863', 'fiberid: 3').meta.objectId).toBe('LAMOST J063715.90+271356.5');
+  });
+  it('no id from incomplete numbers', () => {
+    expect(facts('plate: 266', 'fiber: 168').meta.objectId).toBeUndefined();
+    expect(facts('plate: 266', 'mjd: soon', 'fiber: 168').meta.objectId).toBeUndefined();
+  });
+});

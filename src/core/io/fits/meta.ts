@@ -4,7 +4,8 @@
  * first, then the primary HDU); the first usable value wins.
  */
 import type { SpectrumMeta } from '../../types';
-import type { FitsHeader } from './header';
+import { plateMjdFibreId } from '../objectId';
+import type { FitsHeader, FitsHeaderValue } from './header';
 
 function firstString(hs: readonly FitsHeader[], keys: readonly string[]): string | undefined {
   for (const h of hs) {
@@ -78,10 +79,42 @@ function decDeg(hs: readonly FitsHeader[]): number | undefined {
   return undefined;
 }
 
+/**
+ * Keywords that name the object, most telling first: an observer's OBJECT; a
+ * survey designation (LAMOST writes DESIG = 'LAMOST Jhhmmss.ss+ddmmss.s', its
+ * published name, beside OBJNAME, a number from its input catalogue); other
+ * object and target names; an object number (OBJID). DESIGNATION and
+ * TARGETNAME are longer than 8 characters, so they can only come as HIERARCH cards.
+ */
+export const OBJECT_NAME_KEYS = ['OBJECT', 'DESIG', 'DESIGNATION', 'OBJNAME', 'TARGNAME', 'TARGETNAME', 'TARGET', 'OBJID'] as const;
+
+function firstValue(hs: readonly FitsHeader[], keys: readonly string[]): FitsHeaderValue | undefined {
+  for (const h of hs) {
+    for (const k of keys) {
+      const v = h.get(k);
+      if (v !== undefined && v !== null && !(typeof v === 'string' && v.trim() === '')) return v;
+    }
+  }
+  return undefined;
+}
+
+/**
+ * The object id: a name keyword (OBJECT_NAME_KEYS); else plate-MJD-fibre from
+ * PLATEID (or PLATE), MJD and FIBERID (or FIBER), as fibre surveys of the
+ * SDSS kind write them (src/core/io/objectId.ts); else an observation id (OBSID).
+ */
+export function objectIdFromHeaders(hs: readonly FitsHeader[]): string | undefined {
+  const named = firstString(hs, OBJECT_NAME_KEYS);
+  if (named !== undefined) return named;
+  const built = plateMjdFibreId(firstValue(hs, ['PLATEID', 'PLATE']), firstValue(hs, ['MJD']), firstValue(hs, ['FIBERID', 'FIBER']));
+  if (built !== undefined) return built;
+  return firstString(hs, ['OBSID']);
+}
+
 /** Metadata from the headers, most specific first. `fluxUnit` overrides BUNIT (e.g. a table column's TUNIT). */
 export function metaFromHeaders(hs: readonly FitsHeader[], fluxUnit?: string): SpectrumMeta {
   const meta: SpectrumMeta = {};
-  const objectId = firstString(hs, ['OBJECT', 'OBJNAME', 'OBJID', 'TARGNAME', 'TARGET']);
+  const objectId = objectIdFromHeaders(hs);
   if (objectId !== undefined) meta.objectId = objectId;
   const ra = raDeg(hs);
   if (ra !== undefined) meta.raDeg = ra;

@@ -1,10 +1,13 @@
 /**
  * Facts carried in comment lines of a text spectrum, written as `key: value`
  * or `key = value` (e.g. `# object: X`, `# ra: 150.1`, `# wavelength: air, nm`,
- * `# columns: wavelength flux ivar`).
+ * `# columns: wavelength flux ivar`). Without an object name, plate, MJD and
+ * fibre numbers (`# plateid: 266`, `# mjd: 51630`, `# fiberid: 168`) make the
+ * object id as in FITS headers (../objectId.ts).
  */
 import type { SpectrumMeta } from '../../types';
 import { nameTokens, wavelengthWords, stripQuotes, type WavelengthWords } from './columnNames';
+import { plateMjdFibreId } from '../objectId';
 
 export interface CommentLine {
   /** 1-based line number. */
@@ -41,6 +44,7 @@ type MetaKey = 'objectId' | 'raDeg' | 'decDeg' | 'exposureS' | 'dateObs' | 'inst
 const META_KEYS: Record<string, MetaKey> = {
   object: 'objectId', objid: 'objectId', obj_id: 'objectId', object_id: 'objectId', objname: 'objectId',
   object_name: 'objectId', name: 'objectId', target: 'objectId', target_id: 'objectId', targetid: 'objectId', id: 'objectId',
+  desig: 'objectId', designation: 'objectId', target_name: 'objectId', targetname: 'objectId', targname: 'objectId',
   ra: 'raDeg', ra_deg: 'raDeg', raj2000: 'raDeg', ra_j2000: 'raDeg', right_ascension: 'raDeg',
   dec: 'decDeg', dec_deg: 'decDeg', dej2000: 'decDeg', decj2000: 'decDeg', dec_j2000: 'decDeg', declination: 'decDeg',
   exptime: 'exposureS', exposure: 'exposureS', exp_time: 'exposureS', exposure_time: 'exposureS', exposure_s: 'exposureS', texp: 'exposureS',
@@ -56,6 +60,10 @@ const WAVELENGTH_KEYS = new Set([
   'wavelength_scale', 'wavelength_frame',
 ]);
 const COLUMN_KEYS = new Set(['columns', 'column_names', 'cols', 'fields']);
+/** Survey numbers that make an object id when no name is given (src/core/io/objectId.ts). */
+const SURVEY_KEYS: Record<string, 'plate' | 'mjd' | 'fibre'> = {
+  plate: 'plate', plateid: 'plate', plate_id: 'plate', mjd: 'mjd', fiber: 'fibre', fiberid: 'fibre', fiber_id: 'fibre', fibre: 'fibre', fibreid: 'fibre', fibre_id: 'fibre',
+};
 /** Values that mean "not known": the key is skipped, not an error. */
 const UNKNOWN = /^(?:|n\/?a|none|unknown|-+|\?)$/i;
 
@@ -71,6 +79,7 @@ const KEY_VALUE = /^([A-Za-z][A-Za-z0-9_ .\-]{0,40}?)\s*[:=]\s*(.*)$/;
 /** Collect metadata and wavelength statements; throws CommentError on a value that cannot be read. */
 export function readCommentFacts(comments: readonly CommentLine[]): CommentFacts {
   const facts: CommentFacts = { meta: {}, wavelength: [] };
+  const survey: Partial<Record<'plate' | 'mjd' | 'fibre', string>> = {};
   for (const c of comments) {
     const m = KEY_VALUE.exec(c.body);
     if (!m) continue;
@@ -91,10 +100,21 @@ export function readCommentFacts(comments: readonly CommentLine[]): CommentFacts
       facts.columns = { line: c.line, names: value };
       continue;
     }
+    const number = SURVEY_KEYS[key];
+    if (number) {
+      // FITS-style `FIBERID = 168 / Fiber ID`: the number is what comes before the comment.
+      const slash = value.indexOf('/');
+      survey[number] ??= (slash >= 0 ? value.slice(0, slash) : value).trim();
+      continue;
+    }
     const target = META_KEYS[key];
     if (!target || UNKNOWN.test(value)) continue;
     if (facts.meta[target] !== undefined) continue; // the first statement wins
     setMeta(facts.meta, target, value, c.line, key);
+  }
+  if (facts.meta.objectId === undefined) {
+    const built = plateMjdFibreId(survey.plate, survey.mjd, survey.fibre);
+    if (built !== undefined) facts.meta.objectId = built;
   }
   return facts;
 }

@@ -29,10 +29,20 @@ import { withFloor } from './errorFloor';
 
 /** Continuum polynomial terms in the observed frame: 5 absorb real flux-calibration errors (the former engine measured 3 vs 5 on the real set: 46/58 vs 50/58). */
 export const DEFAULT_POLY_TERMS = 5;
-/** Scan minima scored per family. */
-export const MINIMA_PER_FAMILY = 3;
-/** Candidates refined on the fine grid: the best REFINE_TOP by rank (the solution and its runner-up), plus the best of every class. */
-export const REFINE_TOP = 2;
+/**
+ * The scan's polynomial terms: 3. The scan only proposes minima, every one
+ * of which is scored with DEFAULT_POLY_TERMS; each term costs one FFT
+ * correlation per scan vector.
+ */
+export const SCAN_POLY_TERMS = 3;
+/** Scan minima scored per family: the best and the family's runner-up (stars: the best; their +-1000 km/s holds one solution). */
+export const MINIMA_PER_FAMILY = 2;
+/**
+ * Candidates refined on the fine grid: the solution only. The others keep
+ * the scan's parabola (z good to tens of km/s); a reviewer who picks one
+ * gets it refined by refitNear.
+ */
+export const REFINE_TOP = 1;
 /**
  * Fine pixels per scan pixel by class: quasars 8 (552 km/s; broad lines are
  * >= 2000 km/s wide, and 8 keeps their long 0 < z < 6.5 scan in 2048-point
@@ -80,8 +90,10 @@ function workspaceOf(o: FitOptions): FitWorkspace {
 interface Prepared {
   data: PreparedData;
   scanData: WeightedData;
-  fine: WeightedData;
+  /** The fine-grid data (built on first use: only galaxy and star solutions are refined on it). */
+  fine: () => WeightedData;
   scans: FamilyScan[];
+  ws: FitWorkspace;
   input: FitResult['input'];
 }
 
@@ -90,17 +102,24 @@ function prepare(spectrum: Spectrum, o: FitOptions, ws: FitWorkspace): Prepared 
   if (typeof data === 'string') return data;
   const P = o.polyTerms ?? DEFAULT_POLY_TERMS;
   const scanData = weightedData(data.binned, SCAN_BINNING, P, true);
-  const fine = weightedData(data.fine, 1, P, false);
+  let fineData: WeightedData | null = null;
+  const fine = () => (fineData ??= weightedData(data.fine, 1, P, false));
   const wanted = o.families ? new Set(o.families) : null;
   const scans: FamilyScan[] = [];
-  const dataAt = new Map<number, WeightedData>([[SCAN_BINNING, scanData]]);
+  const Pscan = Math.min(P, SCAN_POLY_TERMS);
+  const dataAt = new Map<number, WeightedData>();
   for (const f of o.templateFamilies ?? engineFamilies()) {
     if (wanted && !wanted.has(f.id)) continue;
     const b = scanBinningOf(f.class);
     let d = dataAt.get(b);
     if (!d) {
-      const bl = binLogSpectrum({ ...data.fine, dlog10: DLOG10, noiseEstimated: data.noiseEstimated }, b);
-      d = weightedData({ k0: bl.k0, flux: bl.flux, ivar: bl.ivar }, b, P, true);
+      if (b === SCAN_BINNING) {
+        // Gram-Schmidt is sequential: the first Pscan orthonormal polynomials of the scoring data are the scan's
+        d = { ...scanData, q: scanData.q.slice(0, Pscan), wq: scanData.wq.slice(0, Pscan), g: scanData.g.slice(0, Pscan) };
+      } else {
+        const bl = binLogSpectrum({ ...data.fine, dlog10: DLOG10, noiseEstimated: data.noiseEstimated }, b);
+        d = weightedData({ k0: bl.k0, flux: bl.flux, ivar: bl.ivar }, b, Pscan, true);
+      }
       dataAt.set(b, d);
     }
     const range = shiftRange(f, b, o.zMax);
@@ -113,6 +132,7 @@ function prepare(spectrum: Spectrum, o: FitOptions, ws: FitWorkspace): Prepared 
     scanData,
     fine,
     scans,
+    ws,
     input: { nPix: wl.length, lambdaMinA: wl[0], lambdaMaxA: wl[wl.length - 1], meta: spectrum.meta, format: spectrum.format, medianSnr: data.medianSnr },
   };
 }
@@ -126,18 +146,17 @@ function candidatesOf(p: Prepared, ws: FitWorkspace, o: FitOptions, window?: [nu
     const hi = window ? Math.min(fHi, window[1]) : fHi;
     if (hi - lo < 2) continue;
     const range = { lo, hi, edgeLo: window ? true : lo === fLo, edgeHi: window ? true : hi === fHi };
-    for (const s of scanMinima(scan, window ? 1 : MINIMA_PER_FAMILY, lo, hi)) out.push(scoreMinimum(ws, p.scanData, SCAN_BINNING, scan, s, range));
+    for (const s of scanMinima(scan, window || scan.family.class === 'star' ? 1 : MINIMA_PER_FAMILY, lo, hi)) out.push(scoreMinimum(ws, p.scanData, SCAN_BINNING, scan, s, range));
   }
   return out;
 }
 
-/** Refine the best REFINE_TOP candidates and the best of each class (candidates is ranked). */
+/** Refine the best REFINE_TOP candidates (candidates is ranked). */
 function refineBest(p: Prepared, ranked: Ranked[]): Ranked[] {
-  const seen = new Set<string>();
   return ranked.map((r, i) => {
-    const first = !seen.has(r.c.family.class);
-    seen.add(r.c.family.class);
-    return i < REFINE_TOP || first ? { c: refineCandidate(p.fine, r.c), rank: r.rank } : r;
+    if (i >= REFINE_TOP) return r;
+    const onScoring = r.c.family.class === 'qso';
+    return { c: refineCandidate(p.ws, onScoring ? p.scanData : p.fine(), onScoring ? SCAN_BINNING : 1, r.c), rank: r.rank };
   });
 }
 

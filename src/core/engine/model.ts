@@ -33,22 +33,25 @@ export function evaluateAt(data: WeightedData, vectors: Float64Array[], kStart: 
   const solver = makeShiftSolver(K, P);
   const { tt, tf, tq } = solver;
   const nT = vectors[0].length;
-  const row = new Float64Array(K);
+  const rows = transposed(vectors);
   const n = data.w.length;
+  const { w: W, wf: WF, wq: WQ } = data;
   // pixels where the vectors are defined: t = d0 + i - shift - kStart in [0, nT)
   const iFrom = Math.max(0, kStart + shift - data.d0);
   const iTo = Math.min(n, kStart + shift - data.d0 + nT);
   for (let i = iFrom; i < iTo; i++) {
-    const w = data.w[i];
+    const w = W[i];
     if (!(w > 0)) continue;
-    const t = data.d0 + i - shift - kStart;
-    for (let j = 0; j < K; j++) row[j] = vectors[j][t];
+    const base = (data.d0 + i - shift - kStart) * K;
+    const wfi = WF[i];
     for (let j = 0; j < K; j++) {
-      const wr = w * row[j];
-      if (wr === 0) continue;
-      for (let l = 0; l <= j; l++) tt[j * K + l] += wr * row[l];
-      tf[j] += wr * data.flux[i];
-      for (let a = 0; a < P; a++) tq[j * P + a] += wr * data.q[a][i];
+      const r = rows[base + j];
+      if (r === 0) continue;
+      const wr = w * r;
+      const o = j * K;
+      for (let l = 0; l <= j; l++) tt[o + l] += wr * rows[base + l];
+      tf[j] += r * wfi;
+      for (let a = 0; a < P; a++) tq[j * P + a] += r * WQ[a][i];
     }
   }
   const chi2 = solveShift(solver, data.g, data.F, nonNegative);
@@ -62,6 +65,28 @@ export function evaluateAt(data: WeightedData, vectors: Float64Array[], kStart: 
   return { shift, chi2, amplitudes, polyCoeffs, nParams: solver.used + P };
 }
 
+/**
+ * The vectors as one row-major matrix (template pixel t, vector j at
+ * t * K + j), so a pixel's row is contiguous in memory. Kept per vectors
+ * array (a WeakMap: it goes with the array, nothing to evict by hand).
+ */
+const transposedOf = new WeakMap<Float64Array[], Float64Array>();
+function transposed(vectors: Float64Array[]): Float64Array {
+  if (vectors.length === 1) return vectors[0];
+  let m = transposedOf.get(vectors);
+  if (!m) {
+    const K = vectors.length;
+    const nT = vectors[0].length;
+    m = new Float64Array(nT * K);
+    for (let j = 0; j < K; j++) {
+      const v = vectors[j];
+      for (let t = 0; t < nT; t++) m[t * K + j] = v[t];
+    }
+    transposedOf.set(vectors, m);
+  }
+  return m;
+}
+
 /** evaluateAt with the polynomial gated: it becomes P ordinary columns q_a(i) [rest pixel >= polyFromK], solved together with the vectors. */
 function evaluateGatedAt(data: WeightedData, vectors: Float64Array[], kStart: number, nonNegative: readonly boolean[], shift: number, polyFromK: number): ModelFit {
   const K = vectors.length;
@@ -70,6 +95,7 @@ function evaluateGatedAt(data: WeightedData, vectors: Float64Array[], kStart: nu
   const solver = makeShiftSolver(M, 0);
   const { tt, tf } = solver;
   const nT = vectors[0].length;
+  const rows = transposed(vectors);
   const row = new Float64Array(M);
   const n = data.w.length;
   let F = 0;
@@ -80,7 +106,7 @@ function evaluateGatedAt(data: WeightedData, vectors: Float64Array[], kStart: nu
     F += w * f * f;
     const t = data.d0 + i - shift - kStart;
     const inT = t >= 0 && t < nT;
-    for (let j = 0; j < K; j++) row[j] = inT ? vectors[j][t] : 0;
+    for (let j = 0; j < K; j++) row[j] = inT ? rows[t * K + j] : 0;
     const on = data.d0 + i - shift >= polyFromK ? 1 : 0;
     for (let a = 0; a < P; a++) row[K + a] = on * data.q[a][i];
     for (let j = 0; j < M; j++) {

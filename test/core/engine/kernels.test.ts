@@ -78,3 +78,4 @@ describe('solveShift(solver, g, F, nonNegative)', () => {
     expect(solveShift(s, new Float64Array(0), 5, [false, false])).toBeCloseTo(0, 12);
   });
 });
+

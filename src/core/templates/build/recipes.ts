@@ -127,9 +127,9 @@ const EMISSION_CUT_A = 15;
  */
 const BC03_EXTRA_SIGMA_KMS = Math.sqrt(150 ** 2 - 76 ** 2);
 
-/** Continuum eigenspectra kept for galaxies (5 hold > 99.9 % of the library's sum of squares), and those the scan uses. */
+/** Continuum eigenspectra kept for galaxies (5 hold > 99.99 % of the library's sum of squares), and those the scan uses (3 hold 99.95 %). */
 export const GALAXY_EIGEN = 5;
-export const GALAXY_SCAN_EIGEN = 4;
+export const GALAXY_SCAN_EIGEN = 3;
 
 /** Nebular line FWHM, km/s: ~150 km/s intrinsic with a resolution near 2000 (common practice for fibre spectra). */
 const NEBULAR_FWHM_KMS = 250;

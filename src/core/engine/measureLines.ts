@@ -15,7 +15,8 @@
  *   NaN (not measured) and it is never detected.
  */
 import type { LineMeasurement, Spectrum, SpectrumClass } from '../types';
-import { LINES, type CatalogueLine } from '../lines/catalogue';
+import type { CatalogueLine } from '../lines/catalogue';
+import { classLines } from '../lines/classLines';
 import { FWHM_PER_SIGMA, continuumAt, fitGaussLine, fittedFlux, propagateVariance, type GaussFitResult } from './gaussFit';
 import { bestFilterHitStrided, continuumValue, fitClippedContinuum } from './lines/matchedFilter';
 import { lowerIndex, pixelWidthAt, pixelWindow } from './lines/pixelWindow';
@@ -61,27 +62,14 @@ export interface PlannedLine {
   profile: LineProfile;
 }
 
+const PROFILES = { broad: BROAD, narrow: NARROW, absorption: ABSORPTION } as const;
+
 /**
- * Which catalogue lines are measured for a class, and how.
- * qso: broad-role lines broad, narrow-only lines narrow, no absorption;
- * galaxy and unknown: narrow emission and absorption features;
- * star: absorption features only (expected near z = 0).
+ * Which catalogue lines are measured for a class, and how: the one rule of
+ * src/core/lines/classLines.ts (the markers a reviewer sees follow it too).
  */
 export function linesForClass(cls: SpectrumClass): PlannedLine[] {
-  const out: PlannedLine[] = [];
-  for (const line of LINES) {
-    const r = line.roles;
-    if (cls === 'qso') {
-      if (r.includes('qso-broad')) out.push({ line, profile: BROAD });
-      else if (r.includes('narrow')) out.push({ line, profile: NARROW });
-    } else if (cls === 'star') {
-      if (r.includes('absorption')) out.push({ line, profile: ABSORPTION });
-    } else {
-      if (r.includes('narrow')) out.push({ line, profile: NARROW });
-      else if (r.includes('absorption')) out.push({ line, profile: ABSORPTION });
-    }
-  }
-  return out;
+  return classLines(cls).map((c) => ({ line: c.line, profile: PROFILES[c.profile] }));
 }
 
 /** Fraction of the window that must lie inside the spectrum on each side (core plus half a side band). */

@@ -7,6 +7,10 @@ import { readFileSync } from 'node:fs';
 import { fitBytes, failedResult } from '../core/pipeline';
 import { automaticRow } from '../core/table';
 import type { CosmologyParams } from '../core/types';
+import { FitWorkspace } from '../core/engine/workspace';
+
+/** This thread's engine workspace: FFT plans and template transforms reused from file to file. */
+const workspace = new FitWorkspace();
 
 export interface FitJob {
   path: string;
@@ -22,7 +26,7 @@ parentPort!.on('message', (job: FitJob) => {
   let result;
   try {
     bytes = readFileSync(job.path);
-    result = fitBytes(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), job.path);
+    result = fitBytes(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), job.path, { workspace });
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     const reason = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder' : `cannot read file (${code ?? (e as Error).message})`;

@@ -10,7 +10,10 @@ import type { FitResult, LineMeasurement, Spectrum, SpectrumClass } from '../cor
 import { SpectrumReadError } from '../core/types';
 import { fitBytes } from '../core/pipeline';
 import { readSpectrum } from '../core/io/readSpectrum';
-import { locateFeature, measureLines, refitNear, solutionModel, suggestLines } from '../core/engine';
+import { FitWorkspace, locateFeature, measureLines, refitNear, solutionModel, suggestLines } from '../core/engine';
+
+/** This worker's engine workspace: FFT plans and template transforms reused from fit to fit. */
+const workspace = new FitWorkspace();
 import { LruCache } from './lruCache';
 
 /** A catalogue line a located feature could be (the engine's own answer type). */
@@ -83,7 +86,7 @@ export function createFitWorkerApi(cacheEntries = SPECTRUM_CACHE_ENTRIES): FitWo
   return {
     cache,
     fitFile(bytes, file) {
-      const result = fitBytes(bytes, file);
+      const result = fitBytes(bytes, file, { workspace });
       return transfer(result, fitResultBuffers(result));
     },
     openSpectrum(key, file, bytes) {
@@ -104,7 +107,7 @@ export function createFitWorkerApi(cacheEntries = SPECTRUM_CACHE_ENTRIES): FitWo
     refitNear(key, zCentre) {
       const spectrum = cache.get(key);
       if (!spectrum) return null;
-      const result = refitNear(spectrum, zCentre);
+      const result = refitNear(spectrum, zCentre, { workspace });
       return transfer(result, fitResultBuffers(result));
     },
     nameFeature(key, clickA) {

@@ -1,12 +1,14 @@
 /**
  * Physical constants and unit conversions for the cosmology module.
- * Values as in reference.md sec. 4: c exact (SI definition of the metre);
+ * Values as in docs/reference.md sec. 4: c exact (SI definition of the metre);
  * parsec from IAU 2015 Resolution B2 (1 pc = 648000/pi au, au = 149597870.7 km);
  * Gyr = 1e9 Julian years of 365.25 d.
  */
 
-/** Speed of light, km/s (exact). */
-export const SPEED_OF_LIGHT_KMS = 299792.458;
+import { C_KMS } from '../constants';
+
+/** Speed of light, km/s (exact; src/core/constants.ts). */
+export const SPEED_OF_LIGHT_KMS = C_KMS;
 
 /** One megaparsec, km (IAU 2015). */
 export const MPC_KM = 3.085677581491367e19;

@@ -107,10 +107,9 @@ function reducedChi2(fit: ModelFit, nGood: number): number {
 /**
  * Refine on a finer grid than the scan's: the family's best combination at
  * the candidate, held as one vector, walked to the chi2 minimum (refine.ts).
- * `data` is on `binning` fine pixels per pixel: the fine grid for galaxies
- * and stars, the 3-pixel scoring grid for quasars (207 km/s pixels and a
- * parabola resolve a quasar z far below its line-shift systematics of
- * hundreds of km/s, at a third of the cost). z error from the curvature,
+ * `data` is on `binning` fine pixels per pixel (the engine refines on the
+ * fine grid: on the 3-pixel grid, 130 of 160 simulated quasars came out
+ * right against 136 on the fine one). z error from the curvature,
  * scaled by the square root of the reduced chi2 when above 1.
  */
 export function refineCandidate(ws: FitWorkspace, data: WeightedData, binning: number, c: ScoredCandidate): ScoredCandidate {

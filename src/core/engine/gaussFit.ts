@@ -10,6 +10,8 @@
  * x is in any unit (Angstrom in this project); amplitude, c0 in the unit of y;
  * c1 in y-unit per x-unit. Weights are inverse variances (1 / sigma_y^2);
  * a weight of 0 (or a non-finite x, y or weight) drops the point.
+ * Over 300 lines: one Levenberg-Marquardt fit with its bounds, covariance and
+ * error propagation, kept together so the numbers it reports have one home.
  */
 
 /** Full width at half maximum per Gaussian sigma: 2 sqrt(2 ln 2) (exact). */

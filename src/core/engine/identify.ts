@@ -14,7 +14,7 @@ import { continuumValue, filterAt, fitClippedContinuum, jointFilterScan, noiseSc
 import { lowerIndex, pixelWidthAt, pixelWindow, type PixelWindow } from './lines/pixelWindow';
 
 /** Speed of light, km/s (exact, SI definition). */
-const C_KMS = 299792.458;
+import { C_KMS } from '../constants';
 
 /** A matched-filter peak must reach this signal-to-noise to count as a feature near a click (chosen so that pure noise almost never qualifies). */
 export const LOCATE_SNR = 5;

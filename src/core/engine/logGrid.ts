@@ -4,16 +4,17 @@
  * Pixel k (an integer, absolute: the same k means the same wavelength for every
  * spectrum and every template) has its centre at log10(lambda / 1 A) = k * DLOG10
  * and its edges half a pixel either side. On this grid a redshift is a whole
- * shift of n pixels: 1 + z = 10^(n * DLOG10) (reference sheet sec. 3).
+ * shift of n pixels: 1 + z = 10^(n * DLOG10) (docs/reference.md sec. 3).
  */
 
 /** Pixel size in log10(lambda), dimensionless. */
 export const DLOG10 = 1e-4;
 
-/** Speed of light, km/s (SI definition, exact). */
-export const C_KMS = 299792.458;
+import { C_KMS } from '../constants';
 
-/** Velocity width of one pixel, km/s: c ln(10) DLOG10 = 69.0298 km/s (reference sheet sec. 3). */
+export { C_KMS };
+
+/** Velocity width of one pixel, km/s: c ln(10) DLOG10 = 69.0298 km/s (docs/reference.md sec. 3). */
 export const KMS_PER_PIXEL = C_KMS * Math.LN10 * DLOG10;
 
 /** Centre wavelength of absolute pixel k (fractional k allowed), Angstrom. */

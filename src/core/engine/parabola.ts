@@ -1,5 +1,5 @@
 /**
- * Three-point parabola through chi2 at x - h, x, x + h (reference sheet sec. 5):
+ * Three-point parabola through chi2 at x - h, x, x + h (docs/reference.md sec. 5):
  *   x0 = x - h (c+ - c-) / (2 (c+ - 2 c0 + c-)),  d2chi2/dx2 = (c+ - 2 c0 + c-) / h^2,
  * and the 1-sigma error sqrt(2 / d2chi2/dx2) (the Delta chi2 = 1 rule for one parameter).
  */

@@ -4,7 +4,9 @@
  */
 
 /** Speed of light, km/s (exact, SI definition). */
-export const C_KMS = 299792.458;
+import { C_KMS } from '../constants';
+
+export { C_KMS };
 
 /** FWHM = 2 sqrt(2 ln 2) sigma for a Gaussian. */
 export const FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);

@@ -3,6 +3,7 @@
  * independent strengths and widths, blueshifted high-ionisation lines,
  * optional narrow lines and Fe II-like bumps, then the Lyman-alpha forest.
  */
+import { C_KMS } from '../constants';
 import { addGaussian, observedSigmaA } from './profiles';
 import { forestTransmission } from './forest';
 import { restGrid, scatterDex, type ClassModel, type ModelContext, type TruthLine } from './model';
@@ -80,7 +81,7 @@ export function quasarModel(ctx: ModelContext): ClassModel {
     const share = b.shift[0] + (b.shift[1] - b.shift[0]) * rng.next();
     const offsetKms = civShift * share + 80 * rng.gaussian();
     const fwhm = fwhmBase * rng.uniform(0.8, 1.2);
-    const obs = b.restA * (1 + z) * (1 + offsetKms / 299792.458);
+    const obs = b.restA * (1 + z) * (1 + offsetKms / C_KMS);
     addBroadLine(flux, edges, obs, fwhm, resolutionR, ew * (1 + z) * norm * cont(b.restA));
     lines.push({ id: b.id, kind: 'emission', restA: b.restA, observedA: obs, offsetKms, fwhmKms: fwhm, ewRestA: ew });
   }

@@ -2,6 +2,7 @@
  * A deterministic mix of simulated spectra of every class, for the engine's
  * evaluation: object i always comes out the same for a given seed, whatever n is.
  */
+import { C_KMS } from '../constants';
 import { createRng, mixSeed } from './prng';
 import { simulateSpectrum, type SimClass, type SimParams, type Simulated } from './simulateSpectrum';
 import type { GridSpec } from './grid';
@@ -39,7 +40,7 @@ export function drawRedshift(cls: SimClass, u: number): number {
       return 0.02 + 0.88 * u;
     case 'star': {
       // Relativistic Doppler, 1 + z = sqrt((1 + b) / (1 - b)) (docs/reference.md sec. 3); v uniform in +-300 km/s.
-      const b = ((2 * u - 1) * 300) / 299792.458;
+      const b = ((2 * u - 1) * 300) / C_KMS;
       return Math.sqrt((1 + b) / (1 - b)) - 1;
     }
   }

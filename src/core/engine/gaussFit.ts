@@ -13,6 +13,7 @@
  * Over 300 lines: one Levenberg-Marquardt fit with its bounds, covariance and
  * error propagation, kept together so the numbers it reports have one home.
  */
+import { choleskyFactor, choleskyFactorSolve, inverseSpd, inverseSpdInto } from '../numeric/cholesky';
 
 /** Full width at half maximum per Gaussian sigma: 2 sqrt(2 ln 2) (exact). */
 export const FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);
@@ -124,66 +125,6 @@ function fromArray(a: ArrayLike<number>): GaussLineParams {
   return { amplitude: a[0], centre: a[1], sigma: a[2], c0: a[3], c1: a[4] };
 }
 
-/**
- * In-place Cholesky factorisation of a symmetric positive-definite n x n matrix
- * (row-major); returns false when it is not positive definite.
- */
-function cholesky(a: Float64Array, n: number): boolean {
-  for (let j = 0; j < n; j++) {
-    let d = a[j * n + j];
-    for (let k = 0; k < j; k++) d -= a[j * n + k] * a[j * n + k];
-    if (!(d > 0) || !Number.isFinite(d)) return false;
-    const ljj = Math.sqrt(d);
-    a[j * n + j] = ljj;
-    for (let i = j + 1; i < n; i++) {
-      let s = a[i * n + j];
-      for (let k = 0; k < j; k++) s -= a[i * n + k] * a[j * n + k];
-      a[i * n + j] = s / ljj;
-    }
-  }
-  return true;
-}
-
-/** Solve L L^T x = b with the factor from cholesky(), into x (may be b itself). */
-function choleskySolve(l: Float64Array, n: number, b: ArrayLike<number>, x: Float64Array): Float64Array {
-  for (let i = 0; i < n; i++) {
-    let s = b[i];
-    for (let k = 0; k < i; k++) s -= l[i * n + k] * x[k];
-    x[i] = s / l[i * n + i];
-  }
-  for (let i = n - 1; i >= 0; i--) {
-    let s = x[i];
-    for (let k = i + 1; k < n; k++) s -= l[k * n + i] * x[k];
-    x[i] = s / l[i * n + i];
-  }
-  return x;
-}
-
-/**
- * Symmetric matrix inverse into `out`, or false when not positive definite.
- * The matrix is first equilibrated by its diagonal so that parameters of very
- * different scale (Angstrom, flux) do not spoil the factorisation.
- */
-function inverseSpdInto(m: Float64Array, n: number, out: Float64Array, work: Float64Array, d: Float64Array, e: Float64Array, col: Float64Array): boolean {
-  for (let i = 0; i < n; i++) {
-    if (!(m[i * n + i] > 0)) return false;
-    d[i] = 1 / Math.sqrt(m[i * n + i]);
-  }
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) work[i * n + j] = m[i * n + j] * d[i] * d[j];
-  if (!cholesky(work, n)) return false;
-  for (let j = 0; j < n; j++) {
-    e.fill(0);
-    e[j] = 1;
-    choleskySolve(work, n, e, col);
-    for (let i = 0; i < n; i++) out[i * n + j] = col[i] * d[i] * d[j];
-  }
-  return true;
-}
-
-function inverseSpd(m: Float64Array, n: number): Float64Array | null {
-  const out = new Float64Array(n * n);
-  return inverseSpdInto(m, n, out, new Float64Array(n * n), new Float64Array(n), new Float64Array(n), new Float64Array(n)) ? out : null;
-}
 
 /**
  * Beyond this many sigma the Gaussian is taken as 0 (exp(-32) ~ 1.3e-14 of
@@ -378,13 +319,13 @@ export function fitGaussLine(
         rhs[k] = 0;
       }
     }
-    if (!cholesky(a, NP)) {
+    if (!choleskyFactor(a, NP)) {
       lambda *= nu;
       nu *= 2;
       if (lambda > 1e16) break;
       continue;
     }
-    choleskySolve(a, NP, rhs, step);
+    choleskyFactorSolve(a, NP, rhs, step);
     for (let k = 0; k < NP; k++) trial[k] = p[k] + step[k];
     clamp(trial);
     const chi2Trial = chi2Of(pts, trial, xRef, eTry, tTry);

@@ -1,6 +1,7 @@
 /**
  * Small dense symmetric positive-definite solves (Cholesky, Golub & Van Loan
- * 2013, sec. 4.2), the one solver the engine uses for normal equations.
+ * 2013, sec. 4.2): the subset solve of the fit's normal equations, and the
+ * factor / solve / inverse the line fits use for their covariance.
  * Works in place on caller-owned buffers so hot loops allocate nothing.
  */
 
@@ -56,4 +57,65 @@ export function choleskySolveSubset(M: Float64Array, b: Float64Array, n: number,
 export function choleskySolve(M: Float64Array, b: Float64Array, n: number, x: Float64Array, L: Float64Array, idx: Int32Array): number {
   for (let i = 0; i < n; i++) idx[i] = i;
   return choleskySolveSubset(M, b, n, idx, n, x, L);
+}
+
+/**
+ * In-place Cholesky factorisation of a symmetric positive-definite n x n matrix
+ * (row-major); returns false when it is not positive definite.
+ */
+export function choleskyFactor(a: Float64Array, n: number): boolean {
+  for (let j = 0; j < n; j++) {
+    let d = a[j * n + j];
+    for (let k = 0; k < j; k++) d -= a[j * n + k] * a[j * n + k];
+    if (!(d > 0) || !Number.isFinite(d)) return false;
+    const ljj = Math.sqrt(d);
+    a[j * n + j] = ljj;
+    for (let i = j + 1; i < n; i++) {
+      let s = a[i * n + j];
+      for (let k = 0; k < j; k++) s -= a[i * n + k] * a[j * n + k];
+      a[i * n + j] = s / ljj;
+    }
+  }
+  return true;
+}
+
+/** Solve L L^T x = b with the factor from choleskyFactor(), into x (may be b itself). */
+export function choleskyFactorSolve(l: Float64Array, n: number, b: ArrayLike<number>, x: Float64Array): Float64Array {
+  for (let i = 0; i < n; i++) {
+    let s = b[i];
+    for (let k = 0; k < i; k++) s -= l[i * n + k] * x[k];
+    x[i] = s / l[i * n + i];
+  }
+  for (let i = n - 1; i >= 0; i--) {
+    let s = x[i];
+    for (let k = i + 1; k < n; k++) s -= l[k * n + i] * x[k];
+    x[i] = s / l[i * n + i];
+  }
+  return x;
+}
+
+/**
+ * Symmetric matrix inverse into `out`, or false when not positive definite.
+ * The matrix is first equilibrated by its diagonal so that parameters of very
+ * different scale (Angstrom, flux) do not spoil the factorisation.
+ */
+export function inverseSpdInto(m: Float64Array, n: number, out: Float64Array, work: Float64Array, d: Float64Array, e: Float64Array, col: Float64Array): boolean {
+  for (let i = 0; i < n; i++) {
+    if (!(m[i * n + i] > 0)) return false;
+    d[i] = 1 / Math.sqrt(m[i * n + i]);
+  }
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) work[i * n + j] = m[i * n + j] * d[i] * d[j];
+  if (!choleskyFactor(work, n)) return false;
+  for (let j = 0; j < n; j++) {
+    e.fill(0);
+    e[j] = 1;
+    choleskyFactorSolve(work, n, e, col);
+    for (let i = 0; i < n; i++) out[i * n + j] = col[i] * d[i] * d[j];
+  }
+  return true;
+}
+
+export function inverseSpd(m: Float64Array, n: number): Float64Array | null {
+  const out = new Float64Array(n * n);
+  return inverseSpdInto(m, n, out, new Float64Array(n * n), new Float64Array(n), new Float64Array(n), new Float64Array(n)) ? out : null;
 }

@@ -1,3 +1,4 @@
 export { symmetricEigen, type SymmetricEigen } from './symmetricEigen';
-export { choleskySolve, choleskySolveSubset, PIVOT_TOL } from './cholesky';
+export { choleskySolve, choleskySolveSubset, choleskyFactor, choleskyFactorSolve, inverseSpd, inverseSpdInto, PIVOT_TOL } from './cholesky';
 export { median, medianInPlace, nmad } from './median';
+export { segmentIndex, interpLinear } from './interpolate';

@@ -10,6 +10,7 @@ import type { Spectrum } from '../types';
 import type { Rng } from './prng';
 import { noiseShape } from './noise';
 import { SKY_LINES } from './sky';
+import { interpLinear } from '../numeric/interpolate';
 
 export type HeldOutLayout = 'log-3800-9200' | 'log-3600-10300' | 'linear-3700-9100-dead-end' | 'linear-4000-8800';
 export const HELD_OUT_LAYOUTS: readonly HeldOutLayout[] = ['log-3800-9200', 'log-3600-10300', 'linear-3700-9100-dead-end', 'linear-4000-8800'];
@@ -36,25 +37,11 @@ function grid(layout: HeldOutLayout): Float64Array {
   return Float64Array.from(out);
 }
 
-/** Linear interpolation of a table at x (NaN outside it). */
-function interp(xs: Float64Array, ys: Float64Array, x: number): number {
-  if (x < xs[0] || x > xs[xs.length - 1]) return NaN;
-  let lo = 0;
-  let hi = xs.length - 1;
-  while (hi - lo > 1) {
-    const m = (lo + hi) >> 1;
-    if (xs[m] <= x) lo = m;
-    else hi = m;
-  }
-  const t = (x - xs[lo]) / (xs[hi] - xs[lo] || 1);
-  return ys[lo] + t * (ys[hi] - ys[lo]);
-}
-
 export function observeTemplate(o: TemplateObservation, rng: Rng): Spectrum {
   const all = grid(o.layout);
   // keep the pixels the template covers
   const keep: number[] = [];
-  for (let i = 0; i < all.length; i++) if (Number.isFinite(interp(o.restWavelengthA, o.restFlux, all[i] / (1 + o.z)))) keep.push(i);
+  for (let i = 0; i < all.length; i++) if (Number.isFinite(interpLinear(o.restWavelengthA, o.restFlux, all[i] / (1 + o.z)))) keep.push(i);
   const wl = Float64Array.from(keep, (i) => all[i]);
   const n = wl.length;
   const flux = new Float64Array(n);
@@ -63,7 +50,7 @@ export function observeTemplate(o: TemplateObservation, rng: Rng): Spectrum {
   const a2 = 0.05 * rng.gaussian();
   for (let i = 0; i < n; i++) {
     const x = (2 * i) / Math.max(1, n - 1) - 1;
-    flux[i] = interp(o.restWavelengthA, o.restFlux, wl[i] / (1 + o.z)) * (1 + a1 * x + a2 * x * x);
+    flux[i] = interpLinear(o.restWavelengthA, o.restFlux, wl[i] / (1 + o.z)) * (1 + a1 * x + a2 * x * x);
   }
   const sorted = Float64Array.from(flux).map(Math.abs).sort();
   const level = sorted[n >> 1] || 1;

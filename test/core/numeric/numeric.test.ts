@@ -48,3 +48,14 @@ describe('median and nmad', () => {
     expect(nmad([1, 2, 3, 4, 100])).toBeCloseTo(1.4826, 10);
   });
 });
+
+describe('segmentIndex and interpLinear', () => {
+  it('find the segment and interpolate linearly (exact for a straight line), NaN outside the table', async () => {
+    const { segmentIndex, interpLinear } = await import('../../../src/core/numeric');
+    const xs = [1, 2, 4, 8];
+    expect(segmentIndex(xs, 3)).toBe(1);
+    expect(segmentIndex(xs, 8)).toBe(2);
+    expect(interpLinear(xs, xs.map((x) => 3 * x + 1), 5.5)).toBeCloseTo(17.5, 12);
+    expect(interpLinear(xs, xs, 0.5)).toBeNaN();
+  });
+});

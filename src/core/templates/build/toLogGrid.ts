@@ -5,6 +5,7 @@
  * finer or coarser than the grid). Pixels not fully covered are NaN.
  */
 import { DLOG10 } from '../../engine/logGrid';
+import { segmentIndex } from '../../numeric/interpolate';
 
 export function toLogGrid(wavelengthA: Float64Array, flux: Float64Array, kLo: number, kHi: number): Float64Array {
   const n = kHi - kLo + 1;
@@ -13,14 +14,8 @@ export function toLogGrid(wavelengthA: Float64Array, flux: Float64Array, kLo: nu
   const cum = new Float64Array(wavelengthA.length);
   for (let i = 1; i < wavelengthA.length; i++) cum[i] = cum[i - 1] + 0.5 * (flux[i] + flux[i - 1]) * (wavelengthA[i] - wavelengthA[i - 1]);
   const integralTo = (x: number): number => {
-    // binary search for the segment holding x
-    let lo = 0;
-    let hi = wavelengthA.length - 1;
-    while (hi - lo > 1) {
-      const mid = (lo + hi) >> 1;
-      if (wavelengthA[mid] <= x) lo = mid;
-      else hi = mid;
-    }
+    const lo = segmentIndex(wavelengthA, x);
+    const hi = lo + 1;
     const x0 = wavelengthA[lo];
     const t = x - x0;
     const slope = (flux[hi] - flux[lo]) / (wavelengthA[hi] - x0);

@@ -29,7 +29,7 @@ describe('template families from the published spectra', () => {
     expect(err / peak).toBeLessThan(1 / 30000);
   });
 
-  it('the stellar eigenspectra are orthonormal and rebuild a library star (Pickles 1998 G2V) to about 2 % rms, as the 0.05 % of the library's sum of squares they leave out implies', () => {
+  it('the stellar eigenspectra are orthonormal and rebuild a library star (Pickles 1998 G2V) to about 2 % rms, as the 0.05 % of the library sum of squares they leave out implies', () => {
     const star = publishedFamilies().find((f) => f.id === 'star')!;
     const eig = star.vectors.filter((v) => v.eigen).map((v) => v.values);
     for (let a = 0; a < 3; a++) {

@@ -17,12 +17,9 @@ export function dzNorm(o: Outcome): number {
   return (o.fit.z - o.trueZ) / (1 + o.trueZ);
 }
 
-export function median(xs: readonly number[]): number {
-  if (xs.length === 0) return NaN;
-  const s = [...xs].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
-}
+import { median } from '../../src/core/numeric/median';
+
+export { median };
 
 /** Normalised median absolute deviation: 1.4826 median|x - median x| (equals sigma for a Gaussian; common practice). */
 export function nmad(xs: readonly number[]): number {

@@ -19,6 +19,7 @@
 import type { LineMeasurement, Spectrum, SpectrumClass } from '../types';
 import type { CatalogueLine } from '../lines/catalogue';
 import { classLines } from '../lines/classLines';
+import { inverseSpd } from '../numeric/cholesky';
 import { FWHM_PER_SIGMA, continuumAt, fitGaussLine, fittedFlux, propagateVariance, type GaussFitResult } from './gaussFit';
 import { bestFilterHitStrided, continuumValue, fitClippedContinuum } from './lines/matchedFilter';
 import { lowerIndex, pixelWidthAt, pixelWindow } from './lines/pixelWindow';
@@ -213,7 +214,7 @@ function forcedMeasurement(
     yx += wk * yk * dx;
     yy += wk * yk * yk;
   }
-  const C = invertSym3(gg, g1, gx, s11, s1x, sxx);
+  const C = inverseSpd(Float64Array.of(gg, g1, gx, g1, s11, s1x, gx, s1x, sxx), 3);
   const nan = { flux: NaN, fluxErr: NaN, ewRestA: NaN, ewRestErrA: NaN, snr: NaN };
   if (!C || n <= 3) return { ...base, ...nan };
   const a = C[0] * gy + C[1] * y1 + C[2] * yx;
@@ -236,20 +237,6 @@ function forcedMeasurement(
   }
   const sign = line.kind === 'emission' ? 1 : -1;
   return { ...base, flux, fluxErr, ewRestA, ewRestErrA, snr: (sign * flux) / fluxErr };
-}
-
-/** Inverse of the symmetric 3x3 matrix [[a, b, c], [b, d, e], [c, e, f]] (row-major), or null when singular. */
-function invertSym3(a: number, b: number, c: number, d: number, e: number, f: number): number[] | null {
-  const A = d * f - e * e;
-  const B = c * e - b * f;
-  const Cc = b * e - c * d;
-  const det = a * A + b * B + c * Cc;
-  if (!(Math.abs(det) > 1e-300 * Math.max(1, Math.abs(a * d * f)))) return null;
-  const r = 1 / det;
-  const D = (a * f - c * c) * r;
-  const E = (b * c - a * e) * r;
-  const F = (a * d - b * b) * r;
-  return [A * r, B * r, Cc * r, B * r, D, E, Cc * r, E, F];
 }
 
 function toMeasurement(

@@ -7,6 +7,7 @@
  * running block therefore estimates the local sigma while ignoring smooth
  * continuum and most of a line's steep sides.
  */
+import { median } from '../numeric/median';
 
 /** Pixels per block over which the local noise is taken as constant. */
 const BLOCK_PIX = 64;
@@ -15,12 +16,6 @@ const HALF_WINDOW_BLOCKS = 2;
 /** Gaussian consistency factor of the median absolute deviation. */
 const MAD_TO_SIGMA = 1.4826;
 
-function median(values: number[]): number {
-  if (values.length === 0) return NaN;
-  const s = values.slice().sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
-}
 
 /** Robust sigma of first differences divided by sqrt(2); NaN when too few values. */
 function diffSigma(d: number[]): number {

@@ -3,6 +3,7 @@
  * extra noise and imperfect subtraction at night-sky lines, bad columns, and
  * optional uncorrected telluric absorption.
  */
+import { median } from '../numeric/median';
 import type { Rng } from './prng';
 import { addGaussian, observedSigmaA } from './profiles';
 import { SKY_LINES, TELLURIC_BANDS } from './sky';
@@ -45,12 +46,8 @@ export function noiseSigma(wl: Float64Array, edges: Float64Array, continuum: Flo
   return { sigma, sky, sigmaScale: k };
 }
 
-export function median(x: ArrayLike<number>): number {
-  const a = Array.from(x).filter((v) => Number.isFinite(v)).sort((p, q) => p - q);
-  if (a.length === 0) return NaN;
-  const m = a.length >> 1;
-  return a.length % 2 ? a[m] : 0.5 * (a[m - 1] + a[m]);
-}
+/** The median of the finite values (the project's one median, src/core/numeric). */
+export { median };
 
 /** Multiplicative telluric transmission with soft band edges, depth scaled by `amount` (0..1+). */
 export function telluricTransmission(wl: Float64Array, amount: number): Float64Array {

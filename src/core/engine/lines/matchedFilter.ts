@@ -6,6 +6,7 @@
  * Over 300 lines: the exhaustive matched filter (the test reference) sits
  * beside its strided fast version so the two are read together.
  */
+import { choleskySolve } from '../../numeric/cholesky';
 
 export interface ContinuumFit {
   /** Polynomial coefficients in (x - xRef): flux unit, flux unit / A, flux unit / A^2. */
@@ -23,27 +24,13 @@ export function continuumValue(f: ContinuumFit, x: number): number {
   return v;
 }
 
-/** Solve a small dense system by Gaussian elimination with partial pivoting; null if singular. */
+/** Solve small normal equations (symmetric positive definite) with the project's Cholesky; null if singular. */
 function solveSmall(a: number[][], b: number[]): number[] | null {
   const n = b.length;
-  const m = a.map((row, i) => [...row, b[i]]);
-  for (let c = 0; c < n; c++) {
-    let piv = c;
-    for (let r = c + 1; r < n; r++) if (Math.abs(m[r][c]) > Math.abs(m[piv][c])) piv = r;
-    if (!(Math.abs(m[piv][c]) > 1e-300)) return null;
-    [m[c], m[piv]] = [m[piv], m[c]];
-    for (let r = c + 1; r < n; r++) {
-      const f = m[r][c] / m[c][c];
-      for (let k = c; k <= n; k++) m[r][k] -= f * m[c][k];
-    }
-  }
-  const x = new Array<number>(n).fill(0);
-  for (let r = n - 1; r >= 0; r--) {
-    let v = m[r][n];
-    for (let k = r + 1; k < n; k++) v -= m[r][k] * x[k];
-    x[r] = v / m[r][r];
-  }
-  return x;
+  const M = Float64Array.from(a.flat());
+  const x = new Float64Array(n);
+  const explained = choleskySolve(M, Float64Array.from(b), n, x, new Float64Array(n * n), new Int32Array(n));
+  return Number.isFinite(explained) ? Array.from(x) : null;
 }
 
 /**

@@ -5,9 +5,10 @@ import { buildGalaxyFamily, buildQsoFamily, buildStarFamily, type FamilyBasis } 
 export function buildAllFamilies(tables: TemplateTable[], exclude: ReadonlySet<string> = new Set()): FamilyBasis[] {
   const use = tables.filter((t) => !exclude.has(t.name));
   const maybe = (n: string) => use.find((x) => x.name === n) ?? null;
+  const galaxy = buildGalaxyFamily(use.filter((t) => t.name.startsWith('kc96_') || t.name.startsWith('bc03_')));
   return [
-    buildQsoFamily(maybe('vandenberk2001_sdss_median_composite'), maybe('selsing2016_xshooter_composite')),
-    buildGalaxyFamily(use.filter((t) => t.name.startsWith('kc96_') || t.name.startsWith('bc03_'))),
+    buildQsoFamily(maybe('vandenberk2001_sdss_median_composite'), maybe('selsing2016_xshooter_composite'), galaxy),
+    galaxy,
     buildStarFamily(use.filter((t) => t.name.startsWith('pickles_'))),
   ];
 }

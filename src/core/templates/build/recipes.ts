@@ -133,6 +133,8 @@ export const GALAXY_SCAN_EIGEN = 3;
 
 /** Nebular line FWHM, km/s: ~150 km/s intrinsic with a resolution near 2000 (common practice for fibre spectra). */
 const NEBULAR_FWHM_KMS = 250;
+/** Wide nebular lines: a resolving power near 500, or outflows (the Kinney-Calzetti lines are ~10 A, 600 km/s, wide). */
+const WIDE_NEBULAR_FWHM_KMS = 700;
 
 export function buildGalaxyFamily(galaxies: TemplateTable[]): FamilyBasis {
   const kLo = kOf(1250);
@@ -152,7 +154,7 @@ export function buildGalaxyFamily(galaxies: TemplateTable[]): FamilyBasis {
   });
   const eig = eigenspectra(spectra, GALAXY_EIGEN);
   const n = kHi - kLo + 1;
-  const line = (ids: [string, number][]): Float64Array => emissionLines(n, kLo, ids.map(([id, f]) => [restWavelengthA(id), f]), NEBULAR_FWHM_KMS);
+  const line = (ids: [string, number][], fwhmKms = NEBULAR_FWHM_KMS): Float64Array => emissionLines(n, kLo, ids.map(([id, f]) => [restWavelengthA(id), f]), fwhmKms);
   // Line ratios inside a group: [O III] 5008/4960 = 2.98 and [N II] 6585/6550 = 3.05
   // (Storey & Zeippen 2000, MNRAS 312, 813); Balmer decrement of case B,
   // Ha/Hb = 2.86 (Osterbrock & Ferland 2006, from memory); [S II] and [O I]
@@ -169,6 +171,13 @@ export function buildGalaxyFamily(galaxies: TemplateTable[]): FamilyBasis {
     { id: 'Balmer reddened', values: line([['Halpha', 6], ['Hbeta', 1], ['Hgam', 0.38], ['Hdel', 0.18], ['Heps', 0.1]]), nonNegative: true },
     { id: '[O III]', values: line([['OIII_5008', 2.98], ['OIII_4960', 1], ['NeIII', 0.3]]), nonNegative: true },
     { id: '[N II]+[S II]', values: line([['NII_6585', 3.05], ['NII_6550', 1], ['SII_6718', 1.2], ['SII_6733', 0.9], ['OI_6302', 0.2]]), nonNegative: true },
+    // The same groups at WIDE_NEBULAR_FWHM_KMS: lines seen at low resolution or
+    // broadened by outflows, which the quasar family's broad lines (thousands of
+    // km/s) must not be the only vectors to absorb.
+    { id: '[O II] wide', values: line([['OII_3727', 1], ['OII_3730', 1]], WIDE_NEBULAR_FWHM_KMS), nonNegative: true },
+    { id: 'Balmer wide', values: line([['Halpha', 2.86], ['Hbeta', 1], ['Hgam', 0.47], ['Hdel', 0.26], ['Heps', 0.16]], WIDE_NEBULAR_FWHM_KMS), nonNegative: true },
+    { id: '[O III] wide', values: line([['OIII_5008', 2.98], ['OIII_4960', 1], ['NeIII', 0.3]], WIDE_NEBULAR_FWHM_KMS), nonNegative: true },
+    { id: '[N II]+[S II] wide', values: line([['NII_6585', 3.05], ['NII_6550', 1], ['SII_6718', 1.2], ['SII_6733', 0.9]], WIDE_NEBULAR_FWHM_KMS), nonNegative: true },
   ];
   const eigenIds = eig.vectors.map((_, i) => `galaxy eigen ${i + 1}`);
   return {
@@ -212,8 +221,17 @@ const LYA_A = restWavelengthA('LyA');
 /** Stitch point of the two composites (Vanden Berk below: it reaches 800 A; Selsing above: little host light). */
 const STITCH_A = 2600;
 
-/** Either composite may be left out (held-out tests): the other then serves the whole range. */
-export function buildQsoFamily(vandenBerkIn: TemplateTable | null, selsingIn: TemplateTable | null): FamilyBasis {
+/**
+ * Either composite may be left out (held-out tests): the other then serves the
+ * whole range. `galaxy`: the galaxy family, whose first two eigenspectra
+ * (host starlight, faded in over 2500-3500 A where a quasar outshines its
+ * host) and narrow nebular groups the quasar family borrows: a low-redshift
+ * broad-line AGN is a galaxy spectrum plus broad lines (Vanden Berk et al.
+ * 2001 see the host in their composite), and without them such objects are
+ * fitted better by the galaxy family. The comparison (classify.ts) charges
+ * every borrowed vector in use, so a galaxy without broad lines stays a galaxy.
+ */
+export function buildQsoFamily(vandenBerkIn: TemplateTable | null, selsingIn: TemplateTable | null, galaxy?: FamilyBasis): FamilyBasis {
   const kLo = kOf(800);
   const kHi = kOf(11000);
   const n = kHi - kLo + 1;
@@ -263,6 +281,26 @@ export function buildQsoFamily(vandenBerkIn: TemplateTable | null, selsingIn: Te
     const lam = Math.pow(10, (kLo + j) * DLOG10);
     return lam < LYMAN_LIMIT_A ? level * Math.pow(lam / 1000, -1.56) : 0;
   });
+  const borrowed: BasisVectorData[] = [];
+  if (galaxy) {
+    const onQsoGrid = (v: Float64Array, fade: boolean) => {
+      const out = new Float64Array(n);
+      for (let j = 0; j < n; j++) {
+        const h = v[kLo + j - galaxy.kStart];
+        if (h === undefined) continue;
+        const lam = Math.pow(10, (kLo + j) * DLOG10);
+        out[j] = fade ? h * Math.min(1, Math.max(0, (lam - 2500) / 1000)) : h;
+      }
+      return out;
+    };
+    const eig = galaxy.vectors.filter((v) => v.eigen);
+    borrowed.push({ id: 'host eigen 1', values: onQsoGrid(eig[0].values, true), nonNegative: true });
+    borrowed.push({ id: 'host eigen 2', values: onQsoGrid(eig[1].values, true), nonNegative: false });
+    for (const id of ['[O II] low density', 'Balmer case B', '[O III]', '[N II]+[S II]']) {
+      const v = galaxy.vectors.find((x) => x.id === id);
+      if (v) borrowed.push({ id: `narrow ${id}`, values: onQsoGrid(v.values, false), nonNegative: true });
+    }
+  }
   return {
     id: 'qso',
     class: 'qso',
@@ -275,6 +313,7 @@ export function buildQsoFamily(vandenBerkIn: TemplateTable | null, selsingIn: Te
       ...groups,
       { id: 'C IV shift', values: civShift, nonNegative: false },
       { id: 'Lyman continuum leak', values: leak, nonNegative: true },
+      ...borrowed,
     ],
     scan: [
       { id: 'composite', weights: { composite: 1 } },

@@ -23,6 +23,8 @@ export interface ColumnDef {
   group: ColumnGroup;
   /** Digits after the decimal point (float columns): fixed, so every caller writes the same bytes. */
   decimals?: number;
+  /** Significant digits in exponent notation instead (float columns whose scale depends on the input, e.g. a flux). */
+  significant?: number;
   /** IVOA UCD1+ word where one plainly fits. */
   ucd?: string;
 }

@@ -47,10 +47,14 @@ export interface CsvOptions {
   headerBlock?: boolean;
 }
 
-/** Text pieces of a table written row by row: begin() + row()... + end() is the whole file. */
+/**
+ * Text pieces of a table written row by row: begin() + row()... + end() is the
+ * whole file. `lines` are the row's line-table rows (lines.ts); a format that
+ * nests them (JSON with lines) writes them, the others ignore them.
+ */
 export interface TableWriter {
   begin(): string;
-  row(row: Readonly<Record<string, unknown>>): string;
+  row(row: Readonly<Record<string, unknown>>, lines?: readonly Readonly<Record<string, unknown>>[]): string;
   end(): string;
 }
 

@@ -9,6 +9,7 @@
  */
 import { writeBinTableHdu, writeEmptyPrimaryHdu, writeFitsFile, type BinTableColumn, type FitsCardInput } from '../io/fits/write';
 import type { ColumnDef, TableRow } from './columns';
+import { LINE_COLUMNS } from './lines';
 import { cellValue } from './formatCell';
 import { cosmologySummary, metaEntries, oneLine, type ExportMeta } from './meta';
 
@@ -49,8 +50,13 @@ function fitsDate(iso: string): string | null {
   return m ? m[1] : null;
 }
 
-/** The catalogue as FITS file bytes (primary HDU + BINTABLE extension named CATALOGUE). */
-export function catalogueFits(rows: readonly TableRow[], columns: readonly ColumnDef[], meta: ExportMeta): Uint8Array {
+/**
+ * The catalogue as FITS file bytes: primary HDU + BINTABLE extension named
+ * CATALOGUE, and, when `lines` (line-table rows, lines.ts) is given, a second
+ * BINTABLE named LINES with one row per spectrum and line, tied to the
+ * catalogue by its `file` column.
+ */
+export function catalogueFits(rows: readonly TableRow[], columns: readonly ColumnDef[], meta: ExportMeta, lines?: readonly TableRow[]): Uint8Array {
   const cosmo = cosmologySummary(meta.cosmology);
   const cards: FitsCardInput[] = [
     ['CREATOR', fitsAscii(oneLine(`${meta.software} ${meta.version}`)), 'software that wrote this file'],
@@ -72,5 +78,20 @@ export function catalogueFits(rows: readonly TableRow[], columns: readonly Colum
     extname: 'CATALOGUE',
     cards,
   });
-  return writeFitsFile([writeEmptyPrimaryHdu(), table]);
+  const hdus = [writeEmptyPrimaryHdu(), table];
+  if (lines) {
+    hdus.push(
+      writeBinTableHdu({
+        columns: LINE_COLUMNS.map((c) => column(c, lines)),
+        nRows: lines.length,
+        extname: 'LINES',
+        cards: [
+          ['CREATOR', fitsAscii(oneLine(`${meta.software} ${meta.version}`)), 'software that wrote this file'],
+          ['COMMENT', 'Line measurements at the automatic solution, one row per spectrum and line;'],
+          ['COMMENT', 'FILE matches the FILE column of the CATALOGUE extension.'],
+        ],
+      }),
+    );
+  }
+  return writeFitsFile(hdus);
 }

@@ -25,6 +25,7 @@ export function formatCell(col: ColumnDef, v: CellValue): string {
     case 'float': {
       if (typeof v !== 'number') throw new TypeError(`column ${col.name} wants a number, got ${typeof v}`);
       if (!Number.isFinite(v)) return '';
+      if (col.significant !== undefined) return v === 0 ? (0).toExponential(col.significant - 1) : v.toExponential(col.significant - 1);
       const d = col.decimals ?? 6;
       // toFixed switches to exponent notation at 1e21; no catalogue quantity comes near.
       const s = Math.abs(v) < 1e21 ? v.toFixed(d) : v.toExponential(d);

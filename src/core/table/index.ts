@@ -23,7 +23,8 @@ export {
   type ParsedCatalogue,
   type TableWriter,
 } from './csv';
-export { catalogueJson, catalogueJsonText, jsonWriter, type CatalogueJson } from './json';
+export { catalogueJson, catalogueJsonText, jsonWriter, type CatalogueJson, type JsonOptions } from './json';
+export { LINE_COLUMNS, lineRows } from './lines';
 export { catalogueTableWriter, type TableFormat, type TableWriterOptions } from './tableWriter';
 export { catalogueVotable, xmlEscape } from './votable';
 export { catalogueFits, FITS_INT_NULL } from './fitsTable';

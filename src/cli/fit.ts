@@ -1,19 +1,33 @@
 /**
  * Headless fitter: `npm run fit -- <files or folders...> --out table.csv`.
  * One row per input file, in input order; an unreadable file gets a row with
- * its reason in `error` and never stops the batch. Rows stream to the output
- * as they finish (in order), so memory stays flat for any batch size.
+ * its reason in `error` and never stops the batch. CSV and JSON rows stream to
+ * the output as they finish (in order), so memory stays flat for any batch
+ * size; FITS and VOTable are sized from all rows, so they are written at the end.
+ * A missing input path, or inputs that hold no file, stop the run before any
+ * work with a message naming the input and exit status 2.
  */
 import { availableParallelism } from 'node:os';
 import { createWriteStream, type WriteStream } from 'node:fs';
 import { Worker } from 'node:worker_threads';
 import { UsageError } from './args';
 import { FIT_USAGE, parseFitOptions } from './options';
-import { expandInputs } from './walk';
+import { expandInputFiles, InputError } from './walk';
 import { listFingerprint, selectShard } from './shard';
 import { JobFailure, ThreadPool } from './threadPool';
 import { failedResult } from '../core/failedResult';
-import { automaticRow, catalogueTableWriter } from '../core/table';
+import {
+  AUTOMATIC_COLUMNS,
+  LINE_COLUMNS,
+  automaticRow,
+  catalogueFits,
+  catalogueTableWriter,
+  catalogueVotable,
+  csvWriter,
+  type ExportMeta,
+  type TableRow,
+  type TableWriter,
+} from '../core/table';
 import { SOFTWARE_NAME, SOFTWARE_VERSION } from '../core/version';
 import type { FitJob, FitJobResult } from './fitThread';
 
@@ -23,30 +37,49 @@ async function main(argv: string[]): Promise<number> {
     process.stdout.write(FIT_USAGE + '\n');
     return 0;
   }
-  const { out: outPath, format, jobs, timeLimitS, cosmology, shard, headerBlock, quiet } = options;
+  const { out: outPath, format, jobs, timeLimitS, cosmology, shard, headerBlock, quiet, lines: linesPath } = options;
+  // Inputs are checked before the engine loads: a mistyped path answers at once.
+  const all = expandInputFiles(options.inputs);
+  const files = selectShard(all, shard);
   // The engine (for its version and template set id) loads only for a real run: --help and option errors answer at once.
   const { ENGINE_VERSION, TEMPLATE_SET_ID } = await import('../core/engine');
-  const all = expandInputs(options.inputs);
-  const files = selectShard(all, shard);
 
-  const out: WriteStream | NodeJS.WriteStream = outPath ? createWriteStream(outPath) : process.stdout;
-  // A closed pipe (e.g. `| head`) ends the run quietly rather than with a stack trace.
-  out.on('error', (e: NodeJS.ErrnoException) => {
-    if (e.code === 'EPIPE') process.exit(0);
-    process.stderr.write(`error: cannot write ${outPath ?? 'standard output'}: ${e.message}\n`);
-    process.exit(1);
-  });
-  const writer = catalogueTableWriter(format, {
+  const open = (path: string | undefined): WriteStream | NodeJS.WriteStream => {
+    const stream = path ? createWriteStream(path) : process.stdout;
+    // A closed pipe (e.g. `| head`) ends the run quietly rather than with a stack trace.
+    stream.on('error', (e: NodeJS.ErrnoException) => {
+      if (e.code === 'EPIPE') process.exit(0);
+      process.stderr.write(`error: cannot write ${path ?? 'standard output'}: ${e.message}\n`);
+      process.exit(1);
+    });
+    return stream;
+  };
+  const out = open(outPath);
+  const linesOut = linesPath !== undefined ? open(linesPath) : undefined;
+  const meta: ExportMeta = {
     software: SOFTWARE_NAME,
     version: SOFTWARE_VERSION,
     templateSet: TEMPLATE_SET_ID,
     cosmology,
     createdAt: new Date().toISOString(),
-    headerBlock,
-    extra: { engine: ENGINE_VERSION, shard: `${shard.index}/${shard.count}`, inputs_total: String(all.length), input_list: listFingerprint(all) },
-  });
-  const write = (s: string) => new Promise<void>((res) => (out.write(s) ? res() : out.once('drain', () => res())));
-  await write(writer.begin());
+    extra: {
+      engine: ENGINE_VERSION,
+      shard: `${shard.index}/${shard.count}`,
+      inputs_total: String(all.length),
+      input_list: listFingerprint(all.map((f) => f.name)),
+    },
+  };
+  // csv and json stream; fits and votable collect the rows and are written at the end.
+  const streaming = format === 'csv' || format === 'json';
+  const writer: TableWriter | undefined = streaming ? catalogueTableWriter(format, { ...meta, headerBlock, lines: format === 'json' }) : undefined;
+  const linesWriter = linesOut ? csvWriter(LINE_COLUMNS, meta, { headerBlock }) : undefined;
+  const collected: TableRow[] = [];
+  const collectedLines: TableRow[] = [];
+  const writeTo = (stream: WriteStream | NodeJS.WriteStream, s: string | Uint8Array) =>
+    new Promise<void>((res) => (stream.write(s) ? res() : stream.once('drain', () => res())));
+  const write = (s: string | Uint8Array) => writeTo(out, s);
+  if (writer) await write(writer.begin());
+  if (linesOut && linesWriter) await writeTo(linesOut, linesWriter.begin());
 
   const bootUrl = new URL('./tsWorker.mjs', import.meta.url);
   const entry = new URL('./fitThread.ts', import.meta.url).href;
@@ -74,42 +107,54 @@ async function main(argv: string[]): Promise<number> {
 
   // Bounded window: at most `window` files in flight or waiting to be written in order.
   const window = Math.max(4 * jobs, 16);
-  const inFlight = new Map<number, Promise<Record<string, unknown>>>();
+  const inFlight = new Map<number, Promise<FitJobResult>>();
   let next = 0;
   const launch = (k: number) => {
-    const path = files[k];
+    const { path, name } = files[k];
     inFlight.set(
       k,
-      pool.run({ path, cosmology }).then(
-        (r) => r.row,
+      pool.run({ path, name, cosmology }).then(
+        (r) => r,
         (e: Error) => {
           const status = e instanceof JobFailure && e.kind === 'timeout' ? 'timeout' : 'failed';
-          return automaticRow(failedResult(path, `${path}: ${e.message}`, status), cosmology) as unknown as Record<string, unknown>;
+          const row = automaticRow(failedResult(name, `${name}: ${e.message}`, status), cosmology) as unknown as Record<string, unknown>;
+          return { row, lines: [] };
         },
       ),
     );
   };
   while (next < files.length && next < window) launch(next++);
   for (let k = 0; k < files.length; k++) {
-    const row = await inFlight.get(k)!;
+    const { row, lines } = await inFlight.get(k)!;
     inFlight.delete(k);
     if (next < files.length) launch(next++);
     done++;
     if (row.error) failed++;
-    await write(writer.row(row));
+    if (writer) await write(writer.row(row, lines));
+    else {
+      collected.push(row as TableRow);
+      if (format === 'fits') collectedLines.push(...(lines as TableRow[]));
+    }
+    if (linesOut && linesWriter) for (const l of lines) await writeTo(linesOut, linesWriter.row(l));
     progress();
   }
-  await write(writer.end());
+  if (writer) await write(writer.end());
+  else if (format === 'fits') await write(catalogueFits(collected, AUTOMATIC_COLUMNS, meta, collectedLines));
+  else await write(catalogueVotable(collected, AUTOMATIC_COLUMNS, meta));
   progress(true);
   await pool.close();
-  if (outPath) await new Promise<void>((res) => (out as WriteStream).end(res));
+  const close = (stream: WriteStream | NodeJS.WriteStream) => new Promise<void>((res) => (stream as WriteStream).end(res));
+  if (outPath) await close(out);
+  if (linesOut) await close(linesOut);
   return 0;
 }
 
 main(process.argv.slice(2)).then(
   (code) => process.exit(code),
   (e: Error) => {
-    process.stderr.write(`${e instanceof UsageError ? `error: ${e.message}\n${FIT_USAGE}` : `error: ${e.stack ?? e.message}`}\n`);
+    const text =
+      e instanceof UsageError ? `error: ${e.message}\n${FIT_USAGE}` : e instanceof InputError ? `error: ${e.message}` : `error: ${e.stack ?? e.message}`;
+    process.stderr.write(`${text}\n`);
     process.exit(2);
   },
 );

@@ -5,7 +5,7 @@
 import { parentPort } from 'node:worker_threads';
 import { readFileSync } from 'node:fs';
 import { fitBytes, failedResult } from '../core/pipeline';
-import { automaticRow } from '../core/table';
+import { automaticRow, lineRows } from '../core/table';
 import type { CosmologyParams } from '../core/types';
 import { FitWorkspace } from '../core/engine/workspace';
 
@@ -13,12 +13,17 @@ import { FitWorkspace } from '../core/engine/workspace';
 const workspace = new FitWorkspace();
 
 export interface FitJob {
+  /** Where to read the file. */
   path: string;
+  /** Its name in the table (walk.ts: relative to the given input, as the browser writes it). */
+  name: string;
   cosmology: CosmologyParams;
 }
 
 export interface FitJobResult {
   row: Record<string, unknown>;
+  /** The line-table rows of the fit (empty when it failed). */
+  lines: Record<string, unknown>[];
 }
 
 parentPort!.on('message', (job: FitJob) => {
@@ -26,12 +31,15 @@ parentPort!.on('message', (job: FitJob) => {
   let result;
   try {
     bytes = readFileSync(job.path);
-    result = fitBytes(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), job.path, { workspace });
+    result = fitBytes(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), job.name, { workspace });
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     const reason = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder' : `cannot read file (${code ?? (e as Error).message})`;
-    result = failedResult(job.path, `${job.path}: ${reason}`);
+    result = failedResult(job.name, `${job.name}: ${reason}`);
   }
-  const reply: FitJobResult = { row: automaticRow(result, job.cosmology) as unknown as Record<string, unknown> };
+  const reply: FitJobResult = {
+    row: automaticRow(result, job.cosmology) as unknown as Record<string, unknown>,
+    lines: lineRows(result) as unknown as Record<string, unknown>[],
+  };
   parentPort!.postMessage(reply);
 });

@@ -7,12 +7,16 @@
 import { parseCommandLine, UsageError } from './args';
 import { parseCosmologyOption } from './cosmologyOption';
 import { parseShard, type ShardSpec } from './shard';
-import type { TableFormat } from '../core/table';
 import type { CosmologyParams } from '../core/types';
 
 export const FIT_USAGE = `usage: npm run fit -- <files or folders...> --out <table.csv> [options]
   --out FILE          where to write the table (default: standard output)
-  --format csv|json   table format (default csv; also from the --out extension)
+  --format FORMAT     csv, json, fits (binary table) or votable (1.4); default csv, or
+                      from the --out extension (.json, .fits/.fit/.fts, .vot/.xml).
+                      json and fits also carry the line measurements; fits and
+                      votable are written when the batch ends
+  --lines FILE        also write the line measurements as CSV, one row per
+                      spectrum and line (file ties them to the table)
   --jobs N            worker threads (default: the number of cores)
   --cosmology SPEC    e.g. h0=70,om=0.3,ok=0,or=0 (default flat h0=70, om=0.3)
   --shard I/N         fit only shard I of N of the sorted input list
@@ -28,6 +32,7 @@ export const MERGE_USAGE = `usage: npm run merge -- --out <merged.csv> <shard ta
 const FIT_OPTIONS = {
   out: 'string',
   format: 'string',
+  lines: 'string',
   jobs: 'string',
   cosmology: 'string',
   shard: 'string',
@@ -44,11 +49,27 @@ export const DEFAULT_TIME_LIMIT_S = 60;
 /** The longest time limit a timer can hold: 2^31 - 1 ms (setTimeout's range in browsers and Node). */
 const MAX_TIME_LIMIT_S = Math.floor((2 ** 31 - 1) / 1000);
 
+/** Formats of the fitter's table: csv and json stream row by row; fits and votable are written at the end. */
+export type FitFormat = 'csv' | 'json' | 'fits' | 'votable';
+
+const FIT_FORMATS: readonly FitFormat[] = ['csv', 'json', 'fits', 'votable'];
+
+/** The format an output file name implies (csv when nothing matches). */
+export function formatFromName(name: string | undefined): FitFormat {
+  const n = (name ?? '').toLowerCase();
+  if (n.endsWith('.json')) return 'json';
+  if (/\.(fits|fit|fts)$/.test(n)) return 'fits';
+  if (/\.(vot|votable|xml)$/.test(n)) return 'votable';
+  return 'csv';
+}
+
 export interface FitOptions {
   inputs: string[];
   /** Output file; undefined for standard output. */
   out: string | undefined;
-  format: TableFormat;
+  format: FitFormat;
+  /** Lines CSV file, when asked for. */
+  lines: string | undefined;
   jobs: number;
   timeLimitS: number;
   cosmology: CosmologyParams;
@@ -70,8 +91,10 @@ export function parseFitOptions(argv: readonly string[], cores: number): FitOpti
 
   const out = values.out;
   if (out === '') throw new UsageError('--out needs a file name');
-  const format = values.format ?? (out?.toLowerCase().endsWith('.json') ? 'json' : 'csv');
-  if (format !== 'csv' && format !== 'json') throw new UsageError(`--format must be csv or json (got '${format}')`);
+  const format = (values.format ?? formatFromName(out)) as FitFormat;
+  if (!FIT_FORMATS.includes(format)) throw new UsageError(`--format must be csv, json, fits or votable (got '${format}')`);
+  if (values.lines === '') throw new UsageError('--lines needs a file name');
+  if (values.lines !== undefined && values.lines === out) throw new UsageError('--lines must name a different file from --out');
 
   const jobsText = values.jobs;
   const jobs = jobsText === undefined ? cores : /^\s*\d+\s*$/.test(jobsText) ? Number(jobsText) : NaN;
@@ -96,6 +119,7 @@ export function parseFitOptions(argv: readonly string[], cores: number): FitOpti
     inputs: positionals,
     out,
     format,
+    lines: values.lines,
     jobs,
     timeLimitS,
     cosmology: parseCosmologyOption(values.cosmology),

@@ -4,11 +4,13 @@
  * worker makes; shards merge back into the unsharded table.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readFileSync } from 'node:fs';
+import { execFileSync, spawnSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
-import { parseCatalogueCsv, automaticRow } from '../../src/core/table';
+import { basename, join, resolve } from 'node:path';
+import { parseCatalogueCsv, automaticRow, lineRows, LINE_COLUMNS, AUTOMATIC_COLUMNS, catalogueFits } from '../../src/core/table';
+import { walkHdus } from '../../src/core/io/fits/hdus';
+import { tableColumns } from '../../src/core/io/fits/table';
 import { fitBytes } from '../../src/core/pipeline';
 import { DEFAULT_COSMOLOGY } from '../../src/core/cosmology';
 import { parseTruthCsv } from '../../src/core/sim';
@@ -21,6 +23,12 @@ const tmp = mkdtempSync(join(tmpdir(), 'shiftmark-cli-'));
 function fit(args: string[]): string {
   execFileSync(TSX, ['src/cli/fit.ts', ...args], { cwd: ROOT, stdio: ['ignore', 'ignore', 'pipe'] });
   return readFileSync(args[args.indexOf('--out') + 1], 'utf8');
+}
+
+/** A run that may fail: exit status and standard error. */
+function run(args: string[]): { status: number | null; stderr: string } {
+  const r = spawnSync(TSX, ['src/cli/fit.ts', ...args], { cwd: ROOT, encoding: 'utf8' });
+  return { status: r.status, stderr: r.stderr };
 }
 
 const truth = parseTruthCsv(readFileSync(join(ROOT, 'sample-spectra', 'truth.csv'), 'utf8'));
@@ -81,20 +89,85 @@ describe('npm run fit on sample-spectra/', () => {
     expect(() => mergeShardTables([{ name: 's1.csv', text: a }, { name: 'again.csv', text: a }])).toThrow(/given twice/);
   }, 180_000);
 
-  it('keeps going past a missing file and says why', () => {
-    const text = fit(['sample-spectra/mrx-0877.csv', join(tmp, 'no-such-file.fits'), '--out', join(tmp, 'missing.csv')]);
-    const rows = parseCatalogueCsv(text).rows;
-    expect(rows).toHaveLength(2);
-    expect(rows.find((r) => r.file.endsWith('no-such-file.fits'))!.error).toMatch(/no such file/);
-    expect(rows.find((r) => r.file.endsWith('mrx-0877.csv'))!.error).toBe('');
+  it('stops before any work, with status 2 and a message naming the input, for a missing path', () => {
+    const missing = join(tmp, 'no-such-file.fits');
+    const out = join(tmp, 'missing.csv');
+    const r = run(['sample-spectra/mrx-0877.csv', missing, '--out', out, '--quiet']);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toContain(`error: ${missing}: no such file or folder`);
+    expect(() => readFileSync(out)).toThrow(/ENOENT/); // no table was started
   }, 60_000);
+
+  it('stops with status 2 naming the folder when the inputs hold no spectrum file', () => {
+    const empty = join(tmp, 'empty-night');
+    mkdirSync(empty);
+    writeFileSync(join(empty, 'README.md'), 'notes are not spectra');
+    const r = run([empty, '--out', join(tmp, 'empty.csv'), '--quiet']);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toContain(`error: ${empty}: the folder holds no spectrum files`);
+  }, 60_000);
+
+  it('names files relative to the given input, as the browser does: a file by its name, however it was given', () => {
+    const abs = join(ROOT, 'sample-spectra', 'mrx-0877.csv');
+    const rows = parseCatalogueCsv(fit([abs, '--out', join(tmp, 'abs.csv'), '--jobs', '1', '--quiet'])).rows;
+    expect(rows.map((r) => r.file)).toEqual(['mrx-0877.csv']);
+    // The same file in the folder run is named from the folder given ('sample-spectra/...'); the numbers agree.
+    const inFolder = table.rows.find((r) => r.file === 'sample-spectra/mrx-0877.csv')!;
+    expect({ ...rows[0], file: '' }).toEqual({ ...inFolder, file: '' });
+  }, 60_000);
+
+  it('writes FITS (catalogue + LINES extension), VOTable, JSON with lines and a lines CSV: the same rows as the CSV', () => {
+    const files = ['sample-spectra/mrx-0877.csv', 'sample-spectra/mrx-0886.fits'];
+    // Files given one by one are named by their file names (walk.ts, as the browser names picked files).
+    const names = files.map((f) => basename(f));
+    const expected = files.map((f, i) => fitBytes(new Uint8Array(readFileSync(join(ROOT, f))), names[i]));
+    const expectedLines = expected.flatMap((r) => lineRows(r));
+    expect(expectedLines.length).toBeGreaterThan(0); // otherwise the line checks below prove nothing
+
+    // Lines CSV beside a FITS table, format taken from the .fits name.
+    fit([...files, '--out', join(tmp, 'two.fits'), '--lines', join(tmp, 'two-lines.csv'), '--jobs', '1', '--quiet']);
+    const lines = parseCatalogueCsv(readFileSync(join(tmp, 'two-lines.csv'), 'utf8'));
+    expect(lines.columns).toEqual(LINE_COLUMNS.map((c) => c.name));
+    expect(lines.rows).toEqual(expectedLines);
+
+    // FITS 4.0 sec. 7.3: two BINTABLE extensions, walked by the project's own reader; their data bytes
+    // equal those of the core writer fed the in-process rows (the browser's path).
+    const bytes = new Uint8Array(readFileSync(join(tmp, 'two.fits')));
+    const ext = walkHdus(bytes, 'two.fits').filter((h) => h.kind === 'bintable');
+    expect(ext.map((h) => h.extname)).toEqual(['CATALOGUE', 'LINES']);
+    expect(tableColumns(ext[1], 'two.fits').map((c) => c.name)).toEqual(LINE_COLUMNS.map((c) => c.name));
+    expect(ext[1].axes[1]).toBe(expectedLines.length); // NAXIS2: one row per spectrum and line
+    const meta = { software: 'x', version: '0', templateSet: 't', cosmology: DEFAULT_COSMOLOGY, createdAt: '2026-01-01T00:00:00Z' };
+    const rows = expected.map((r) => automaticRow(r, DEFAULT_COSMOLOGY));
+    const ref = catalogueFits(rows, AUTOMATIC_COLUMNS, meta, expectedLines);
+    const refExt = walkHdus(ref, 'ref.fits').filter((h) => h.kind === 'bintable');
+    const data = (b: Uint8Array, h: (typeof ext)[number]) => b.subarray(h.dataOffset, h.dataOffset + h.dataBytes);
+    for (const k of [0, 1]) expect(data(bytes, ext[k])).toEqual(data(ref, refExt[k]));
+
+    // VOTable 1.4: one TR per file, one FIELD per automatic column.
+    fit([...files, '--out', join(tmp, 'two.vot'), '--jobs', '1', '--quiet']);
+    const vot = readFileSync(join(tmp, 'two.vot'), 'utf8');
+    expect(vot).toMatch(/^<\?xml version="1.0" encoding="UTF-8"\?>\n<VOTABLE version="1.4"/);
+    expect(vot.match(/<TR>/g)).toHaveLength(2);
+    expect(vot.match(/<FIELD /g)).toHaveLength(AUTOMATIC_COLUMNS.length);
+
+    // JSON: each row carries its own lines (without the file, which the row names).
+    fit([...files, '--out', join(tmp, 'two.json'), '--jobs', '1', '--quiet']);
+    const json = JSON.parse(readFileSync(join(tmp, 'two.json'), 'utf8'));
+    expect(json.rows.map((r: { file: string }) => r.file)).toEqual(names);
+    names.forEach((f, i) => {
+      const mine = expectedLines.filter((l) => l.file === f);
+      expect(json.rows[i].lines.map((l: { line_id: string }) => l.line_id)).toEqual(mine.map((l) => l.line_id));
+      expect(json.rows[i].lines[0]).not.toHaveProperty('file');
+    });
+  }, 120_000);
 
   it('marks a file that runs past its time limit as failed, replaces the worker and finishes the batch', () => {
     // 0.05 s is far less than a worker needs to start, so every file runs out of time.
     const files = ['sample-spectra/mrx-0877.csv', 'sample-spectra/mrx-0886.fits', 'sample-spectra/mrx-0136.fits'];
     const text = fit([...files, '--out', join(tmp, 'timeout.csv'), '--jobs', '1', '--time-limit', '0.05']);
     const rows = parseCatalogueCsv(text).rows;
-    expect(rows.map((r) => r.file)).toEqual([...files].sort());
+    expect(rows.map((r) => r.file)).toEqual(files.map((f) => basename(f)).sort());
     for (const r of rows) {
       expect(r.error).toMatch(/no result within 0\.05 s/);
       expect(r.z).toBe('');

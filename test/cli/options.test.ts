@@ -58,6 +58,7 @@ describe('parseFitOptions(argv, cores): the README options', () => {
       inputs: ['spectra'],
       out: undefined,
       format: 'csv',
+      lines: undefined,
       jobs: 4,
       timeLimitS: DEFAULT_TIME_LIMIT_S,
       cosmology: DEFAULT_COSMOLOGY,
@@ -69,11 +70,12 @@ describe('parseFitOptions(argv, cores): the README options', () => {
   });
   it('reads every documented option', () => {
     const o = fitOpts('a.fits', 'dir', '--out', 't.csv', '--format', 'json', '--jobs', '3', '--cosmology', 'h0=67.7,om=0.31,ok=0,or=0',
-      '--shard', '2/8', '--time-limit', '2.5', '--no-header', '--quiet');
+      '--shard', '2/8', '--time-limit', '2.5', '--no-header', '--quiet', '--lines', 'l.csv');
     expect(o).toEqual({
       inputs: ['a.fits', 'dir'],
       out: 't.csv',
       format: 'json',
+      lines: 'l.csv',
       jobs: 3,
       timeLimitS: 2.5,
       cosmology: { h0: 67.7, omegaM: 0.31, omegaK: 0, omegaR: 0 },
@@ -86,6 +88,15 @@ describe('parseFitOptions(argv, cores): the README options', () => {
     expect(fitOpts('a', '--out', 'T.JSON').format).toBe('json');
     expect(fitOpts('a', '--out', 't.json', '--format', 'csv').format).toBe('csv');
   });
+  it('takes fits and votable by name or from the output name (.fits/.fit/.fts: FITS 4.0 sec. 1.1 common extensions; .vot/.xml: common practice)', () => {
+    expect(fitOpts('a', '--format', 'fits').format).toBe('fits');
+    expect(fitOpts('a', '--format', 'votable').format).toBe('votable');
+    expect(fitOpts('a', '--out', 'cat.FITS').format).toBe('fits');
+    expect(fitOpts('a', '--out', 'cat.fts').format).toBe('fits');
+    expect(fitOpts('a', '--out', 'cat.vot').format).toBe('votable');
+    expect(fitOpts('a', '--out', 'cat.xml').format).toBe('votable');
+    expect(fitOpts('a', '--out', 'cat.fits', '--format', 'csv').format).toBe('csv');
+  });
   it('answers --help before checking anything else', () => {
     expect(parseFitOptions(['--help'], 4)).toBe('help');
     expect(parseFitOptions(['--jobs', 'x', '--help'], 4)).toBe('help');
@@ -93,7 +104,9 @@ describe('parseFitOptions(argv, cores): the README options', () => {
   });
   it('explains each bad option', () => {
     expect(fitError()).toBe('no input files or folders given');
-    expect(fitError('a', '--format', 'xml')).toBe("--format must be csv or json (got 'xml')");
+    expect(fitError('a', '--format', 'xml')).toBe("--format must be csv, json, fits or votable (got 'xml')");
+    expect(fitError('a', '--lines=')).toBe('--lines needs a file name');
+    expect(fitError('a', '--out', 't.csv', '--lines', 't.csv')).toBe('--lines must name a different file from --out');
     expect(fitError('a', '--jobs', '0')).toBe("--jobs must be a whole number >= 1 (got '0')");
     expect(fitError('a', '--jobs', '2.5')).toBe("--jobs must be a whole number >= 1 (got '2.5')");
     expect(fitError('a', '--jobs', 'many')).toBe("--jobs must be a whole number >= 1 (got 'many')");

@@ -66,8 +66,12 @@ describe('npm run fit on sample-spectra/', () => {
       expect(row.error).toBe('');
       if (Math.abs(Number(row.z) - t.z) / (1 + t.z) < 0.01) right++;
     }
-    // Regression floor for this demo set (internal): at the time of writing 42 of 44 were right.
-    expect(right / good.length).toBeGreaterThanOrEqual(0.9);
+    // Regression floor for this demo set (internal): 38 of 44 right with the
+    // published-template engine (0.2.0). The demo set comes from the project's
+    // own toy simulator, whose galaxies have shapes no real galaxy has; the
+    // engine is judged on held-out published templates and real spectra
+    // (npm run evaluate), not here.
+    expect(right / good.length).toBeGreaterThanOrEqual(0.85);
   });
 
   it('writes the same row the in-process core call gives (the browser worker takes that path)', () => {

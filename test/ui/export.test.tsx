@@ -3,7 +3,9 @@ import { describe, it, expect, afterEach, vi } from 'vitest';
 import { render, screen, fireEvent, cleanup } from '@testing-library/react';
 import { buildExport } from '../../src/ui/export/buildExport';
 import { DEFAULT_COSMOLOGY } from '../../src/core/cosmology';
-import { CATALOGUE_COLUMNS, catalogueRow, parseCatalogueCsv } from '../../src/core/table';
+import { CATALOGUE_COLUMNS, LINE_COLUMNS, catalogueRow, lineRows, parseCatalogueCsv } from '../../src/core/table';
+import { walkHdus } from '../../src/core/io/fits/hdus';
+import type { LineMeasurement } from '../../src/core/types';
 import { makeResult, makeFailed, makeDecision, textBytes } from './fixtures';
 import { fakeReview, makeSession, waitUntil, ScriptedFitter } from './harness';
 
@@ -99,6 +101,41 @@ describe('review columns from the core catalogue row: named line and flags', () 
     expect(vot).toMatch(/<FIELD[^>]*name="line_observed_a"/);
     const fits = new TextDecoder().decode((await buildExport(flagged, 'fits', DEFAULT_COSMOLOGY)).data as Uint8Array);
     expect(fits).toContain("'review_flags");
+  });
+});
+
+describe('line measurements in the exports (the core line table, as the command line writes it)', () => {
+  // Invented measurements (fixtures.ts: the UI moves data, not science).
+  const measured = (id: string, observedA: number): LineMeasurement => ({
+    id, label: id, kind: 'emission', restA: 1549.48, observedA, observedErrA: 0.5, z: observedA / 1549.48 - 1, zErr: 0.0003,
+    fwhmKms: 2500, fwhmErrKms: 100, flux: 12.5, fluxErr: 1.5, ewRestA: 30, ewRestErrA: 3, snr: 8.3, detected: true,
+  });
+  const fitted = new Map([
+    ['k1', makeResult('night1/one.fits', { lines: [measured('CIV', 5338.8), measured('CIII', 6560.1)] })],
+    ['k2', makeFailed('night1/two.fits', 'night1/two.fits: missing END card')],
+    ['k3', makeResult('three.fits', { lines: [measured('MgII', 7001.2)] })],
+  ]);
+  const withLines = { rows: [{ key: 'k1' }, { key: 'k2' }, { key: 'k3' }], getResult: async (k: string) => fitted.get(k) };
+  const expectedLines = [...fitted.values()].flatMap((r) => lineRows(r));
+
+  it('lines CSV: one row per spectrum and line, the file as in the catalogue', async () => {
+    const built = await buildExport(withLines, 'lines-csv', DEFAULT_COSMOLOGY);
+    expect(built.lineCount).toBe(3);
+    const parsed = parseCatalogueCsv(built.data as string);
+    expect(parsed.columns).toEqual(LINE_COLUMNS.map((c) => c.name));
+    expect(parsed.rows).toEqual(expectedLines);
+    expect(parsed.rows.map((r) => r.file)).toEqual(['night1/one.fits', 'night1/one.fits', 'three.fits']);
+  });
+
+  it('JSON: every row carries its lines; FITS: a LINES table after the catalogue', async () => {
+    const json = JSON.parse((await buildExport(withLines, 'json', DEFAULT_COSMOLOGY)).data as string);
+    expect(json.rows.map((r: { lines: unknown[] }) => r.lines.length)).toEqual([2, 0, 1]);
+    expect(json.rows[0].lines[1]).toMatchObject({ line_id: 'CIII', observed_a: 6560.1, fwhm_err_kms: 100, ew_rest_err_a: 3 });
+    const fits = await buildExport(withLines, 'fits', DEFAULT_COSMOLOGY);
+    expect(fits.lineCount).toBe(3);
+    const hdus = walkHdus(fits.data as Uint8Array, 'export.fits');
+    expect(hdus.map((h) => h.extname)).toEqual(['', 'CATALOGUE', 'LINES']);
+    expect(hdus[2].axes[1]).toBe(3); // NAXIS2 (FITS 4.0 sec. 7.3.1): one row per line
   });
 });
 

@@ -19,8 +19,10 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
     try {
       const built = await buildExport({ rows: snap.rows, getResult: (k) => session.getResult(k) }, format, snap.cosmology, scope);
       const f = EXPORT_FORMATS.find((x) => x.id === format)!;
-      downloadBlob(built.data as BlobPart, `shiftmark-catalogue-${stamp()}.${f.ext}`, f.mime);
-      setStatus(`Saved ${built.rowCount} rows.${built.notFitted ? ` ${built.notFitted} files not yet fitted were left out.` : ''}`);
+      const what = format === 'lines-csv' ? 'lines' : 'catalogue';
+      downloadBlob(built.data as BlobPart, `shiftmark-${what}-${stamp()}.${f.ext}`, f.mime);
+      const saved = format === 'lines-csv' ? `Saved ${built.lineCount} line rows from ${built.rowCount} spectra.` : `Saved ${built.rowCount} rows.`;
+      setStatus(`${saved}${built.notFitted ? ` ${built.notFitted} files not yet fitted were left out.` : ''}`);
     } catch (e) {
       setStatus(`Export failed: ${(e as Error)?.message ?? e}`);
     }
@@ -55,6 +57,8 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
         <p className="muted small">
           Columns: the automatic fit (as the command line writes it), the review (final z and class, state, how set, the named line and its
           observed wavelength, grades, reviewer, time, note, review flags) and derived quantities for {describeCosmology(snap.cosmology)}.
+          Line measurements (centre, FWHM, flux, equivalent width, S/N, each with its error) at the automatic solution go into JSON and
+          FITS, and into the separate line measurements CSV.
         </p>
         {scope === 'all' && unreviewed > 0 && (
           <p className="caution">{unreviewed} rows are not reviewed: their redshifts are automatic hypotheses (review_state = unreviewed).</p>

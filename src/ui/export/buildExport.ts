@@ -7,7 +7,9 @@
 import type { CosmologyParams, FitResult, ReviewDecision } from '../../core/types';
 import {
   CATALOGUE_COLUMNS,
+  LINE_COLUMNS,
   catalogueRow,
+  lineRows,
   catalogueCsv,
   catalogueJsonText,
   catalogueVotable,
@@ -18,14 +20,15 @@ import {
 import { SOFTWARE_VERSION } from '../version';
 import { ENGINE_VERSION } from '../../core/engine/version';
 
-export type ExportFormat = 'csv' | 'csv-plain' | 'json' | 'fits' | 'votable';
+export type ExportFormat = 'csv' | 'csv-plain' | 'json' | 'fits' | 'votable' | 'lines-csv';
 
 export const EXPORT_FORMATS: readonly { id: ExportFormat; label: string; ext: string; mime: string }[] = [
   { id: 'csv', label: 'CSV with a header block (provenance and cosmology as # lines)', ext: 'csv', mime: 'text/csv' },
   { id: 'csv-plain', label: 'CSV, column names only (RFC 4180, for strict readers)', ext: 'csv', mime: 'text/csv' },
-  { id: 'json', label: 'JSON', ext: 'json', mime: 'application/json' },
-  { id: 'fits', label: 'FITS binary table', ext: 'fits', mime: 'application/fits' },
+  { id: 'json', label: 'JSON (with each spectrum\'s line measurements)', ext: 'json', mime: 'application/json' },
+  { id: 'fits', label: 'FITS binary table (line measurements in a second table, LINES)', ext: 'fits', mime: 'application/fits' },
   { id: 'votable', label: 'VOTable 1.4', ext: 'vot', mime: 'application/x-votable+xml' },
+  { id: 'lines-csv', label: 'Line measurements CSV (one row per spectrum and line)', ext: 'csv', mime: 'text/csv' },
 ];
 
 export type ExportScope = 'all' | 'reviewed';
@@ -38,7 +41,10 @@ export interface ExportSource {
 
 export interface BuiltExport {
   data: string | Uint8Array;
+  /** Catalogue rows (spectra) in the export. */
   rowCount: number;
+  /** Line-table rows in the export (0 for formats without them). */
+  lineCount: number;
   /** Files left out because they have no fit yet. */
   notFitted: number;
 }
@@ -51,6 +57,8 @@ export async function buildExport(
   createdAt = new Date().toISOString(),
 ): Promise<BuiltExport> {
   const rows: TableRow[] = [];
+  /** The line-table rows of each catalogue row, same order. */
+  const lines: TableRow[][] = [];
   let notFitted = 0;
   let templateSet = '';
   for (const r of source.rows) {
@@ -62,10 +70,17 @@ export async function buildExport(
     }
     if (!templateSet && result.status === 'ok') templateSet = result.templateSet;
     rows.push(catalogueRow(result, r.decision, cosmology));
+    lines.push(lineRows(result));
   }
   const meta: ExportMeta = { software: 'Shiftmark', version: SOFTWARE_VERSION, templateSet: templateSet || 'none (no spectrum fitted)', cosmology, createdAt, extra: { engine: ENGINE_VERSION } };
   const cols = CATALOGUE_COLUMNS;
   let data: string | Uint8Array;
+  let lineCount = 0;
+  const flat = () => {
+    const all = lines.flat();
+    lineCount = all.length;
+    return all;
+  };
   switch (format) {
     case 'csv':
       data = catalogueCsv(rows, cols, meta, { headerBlock: true });
@@ -74,14 +89,18 @@ export async function buildExport(
       data = catalogueCsv(rows, cols, meta, { headerBlock: false });
       break;
     case 'json':
-      data = catalogueJsonText(rows, cols, meta);
+      data = catalogueJsonText(rows, cols, meta, lines);
+      lineCount = lines.reduce((n, l) => n + l.length, 0);
       break;
     case 'fits':
-      data = catalogueFits(rows, cols, meta);
+      data = catalogueFits(rows, cols, meta, flat());
+      break;
+    case 'lines-csv':
+      data = catalogueCsv(flat(), LINE_COLUMNS, meta, { headerBlock: true });
       break;
     case 'votable':
       data = catalogueVotable(rows, cols, meta);
       break;
   }
-  return { data, rowCount: rows.length, notFitted };
+  return { data, rowCount: rows.length, lineCount, notFitted };
 }

@@ -69,7 +69,7 @@ async function main(argv: string[]): Promise<number> {
       input_list: listFingerprint(all.map((f) => f.name)),
     },
   };
-  // csv and json stream; fits and votable collect the rows and are written at the end.
+  // csv and json stream; fits and votable collect the rows (and line rows, their second table) and are written at the end.
   const streaming = format === 'csv' || format === 'json';
   const writer: TableWriter | undefined = streaming ? catalogueTableWriter(format, { ...meta, headerBlock, lines: format === 'json' }) : undefined;
   const linesWriter = linesOut ? csvWriter(LINE_COLUMNS, meta, { headerBlock }) : undefined;
@@ -133,14 +133,14 @@ async function main(argv: string[]): Promise<number> {
     if (writer) await write(writer.row(row, lines));
     else {
       collected.push(row as TableRow);
-      if (format === 'fits') collectedLines.push(...(lines as TableRow[]));
+      collectedLines.push(...(lines as TableRow[]));
     }
     if (linesOut && linesWriter) for (const l of lines) await writeTo(linesOut, linesWriter.row(l));
     progress();
   }
   if (writer) await write(writer.end());
   else if (format === 'fits') await write(catalogueFits(collected, AUTOMATIC_COLUMNS, meta, collectedLines));
-  else await write(catalogueVotable(collected, AUTOMATIC_COLUMNS, meta));
+  else await write(catalogueVotable(collected, AUTOMATIC_COLUMNS, meta, collectedLines));
   progress(true);
   await pool.close();
   const close = (stream: WriteStream | NodeJS.WriteStream) => new Promise<void>((res) => (stream as WriteStream).end(res));

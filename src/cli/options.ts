@@ -13,8 +13,8 @@ export const FIT_USAGE = `usage: npm run fit -- <files or folders...> --out <tab
   --out FILE          where to write the table (default: standard output)
   --format FORMAT     csv, json, fits (binary table) or votable (1.4); default csv, or
                       from the --out extension (.json, .fits/.fit/.fts, .vot/.xml).
-                      json and fits also carry the line measurements; fits and
-                      votable are written when the batch ends
+                      json, fits and votable also carry the line measurements;
+                      fits and votable are written when the batch ends
   --lines FILE        also write the line measurements as CSV, one row per
                       spectrum and line (file ties them to the table)
   --jobs N            worker threads (default: the number of cores)

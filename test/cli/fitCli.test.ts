@@ -120,7 +120,7 @@ describe('npm run fit on sample-spectra/', () => {
     expect({ ...rows[0], file: '' }).toEqual({ ...inFolder, file: '' });
   }, 60_000);
 
-  it('writes FITS (catalogue + LINES extension), VOTable, JSON with lines and a lines CSV: the same rows as the CSV', () => {
+  it('writes FITS (catalogue + LINES extension), VOTable (two tables), JSON with lines and a lines CSV: the same rows as the CSV', () => {
     const files = ['sample-spectra/mrx-0877.csv', 'sample-spectra/mrx-0886.fits'];
     // Files given one by one are named by their file names (walk.ts, as the browser names picked files).
     const names = files.map((f) => basename(f));
@@ -152,8 +152,11 @@ describe('npm run fit on sample-spectra/', () => {
     fit([...files, '--out', join(tmp, 'two.vot'), '--jobs', '1', '--quiet']);
     const vot = readFileSync(join(tmp, 'two.vot'), 'utf8');
     expect(vot).toMatch(/^<\?xml version="1.0" encoding="UTF-8"\?>\n<VOTABLE version="1.4"/);
-    expect(vot.match(/<TR>/g)).toHaveLength(2);
-    expect(vot.match(/<FIELD /g)).toHaveLength(AUTOMATIC_COLUMNS.length);
+    const [catalogue, lineTable] = vot.split('<TABLE name="line_measurements"');
+    expect(catalogue.match(/<TR>/g)).toHaveLength(2);
+    expect(catalogue.match(/<FIELD /g)).toHaveLength(AUTOMATIC_COLUMNS.length);
+    // The line table follows as a second TABLE, one TR per spectrum and line.
+    expect(lineTable.match(/<TR>/g)).toHaveLength(expectedLines.length);
 
     // JSON: each row carries its own lines (without the file, which the row names).
     fit([...files, '--out', join(tmp, 'two.json'), '--jobs', '1', '--quiet']);

@@ -127,7 +127,7 @@ describe('line measurements in the exports (the core line table, as the command 
     expect(parsed.rows.map((r) => r.file)).toEqual(['night1/one.fits', 'night1/one.fits', 'three.fits']);
   });
 
-  it('JSON: every row carries its lines; FITS: a LINES table after the catalogue', async () => {
+  it('JSON: every row carries its lines; FITS and VOTable: a line table after the catalogue', async () => {
     const json = JSON.parse((await buildExport(withLines, 'json', DEFAULT_COSMOLOGY)).data as string);
     expect(json.rows.map((r: { lines: unknown[] }) => r.lines.length)).toEqual([2, 0, 1]);
     expect(json.rows[0].lines[1]).toMatchObject({ line_id: 'CIII', observed_a: 6560.1, fwhm_err_kms: 100, ew_rest_err_a: 3 });
@@ -136,6 +136,8 @@ describe('line measurements in the exports (the core line table, as the command 
     const hdus = walkHdus(fits.data as Uint8Array, 'export.fits');
     expect(hdus.map((h) => h.extname)).toEqual(['', 'CATALOGUE', 'LINES']);
     expect(hdus[2].axes[1]).toBe(3); // NAXIS2 (FITS 4.0 sec. 7.3.1): one row per line
+    const vot = (await buildExport(withLines, 'votable', DEFAULT_COSMOLOGY)).data as string;
+    expect(vot).toContain('<TABLE name="line_measurements" nrows="3">');
   });
 });
 

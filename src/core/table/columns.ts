@@ -30,7 +30,7 @@ export interface ColumnDef {
 }
 
 const DEFS = [
-  { name: 'file', unit: '', type: 'text', group: 'automatic', ucd: 'meta.file', description: 'Spectrum file name as given' },
+  { name: 'file', unit: '', type: 'text', group: 'automatic', ucd: 'meta.id;meta.dataset', description: 'Spectrum file: its name, or the path inside the folder given (starting with that folder\'s name)' },
   { name: 'object_id', unit: '', type: 'text', group: 'automatic', ucd: 'meta.id', description: 'Object identifier from the file header (empty when absent)' },
   { name: 'ra_deg', unit: 'deg', type: 'float', decimals: 7, group: 'automatic', ucd: 'pos.eq.ra;meta.main', description: 'Right ascension from the file header' },
   { name: 'dec_deg', unit: 'deg', type: 'float', decimals: 7, group: 'automatic', ucd: 'pos.eq.dec;meta.main', description: 'Declination from the file header' },

@@ -9,7 +9,7 @@ import type { ColumnDef, TableRow } from './columns';
 import { formatCell, type CellValue } from './formatCell';
 
 export const LINE_COLUMNS: readonly ColumnDef[] = [
-  { name: 'file', unit: '', type: 'text', group: 'automatic', ucd: 'meta.id', description: 'Spectrum file name as in the catalogue' },
+  { name: 'file', unit: '', type: 'text', group: 'automatic', ucd: 'meta.id;meta.dataset', description: 'Spectrum file name as in the catalogue' },
   { name: 'line_id', unit: '', type: 'text', group: 'automatic', ucd: 'meta.id', description: 'Catalogue line id' },
   { name: 'label', unit: '', type: 'text', group: 'automatic', description: 'Line name as shown' },
   { name: 'kind', unit: '', type: 'text', group: 'automatic', description: 'emission or absorption' },

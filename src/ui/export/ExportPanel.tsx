@@ -57,8 +57,8 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
         <p className="muted small">
           Columns: the automatic fit (as the command line writes it), the review (final z and class, state, how set, the named line and its
           observed wavelength, grades, reviewer, time, note, review flags) and derived quantities for {describeCosmology(snap.cosmology)}.
-          Line measurements (centre, FWHM, flux, equivalent width, S/N, each with its error) at the automatic solution go into JSON and
-          FITS, and into the separate line measurements CSV.
+          Line measurements (centre, FWHM, flux, equivalent width, S/N, each with its error) at the automatic solution go into JSON, FITS
+          and VOTable, and into the separate line measurements CSV.
         </p>
         {scope === 'all' && unreviewed > 0 && (
           <p className="caution">{unreviewed} rows are not reviewed: their redshifts are automatic hypotheses (review_state = unreviewed).</p>

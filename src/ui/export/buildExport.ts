@@ -27,7 +27,7 @@ export const EXPORT_FORMATS: readonly { id: ExportFormat; label: string; ext: st
   { id: 'csv-plain', label: 'CSV, column names only (RFC 4180, for strict readers)', ext: 'csv', mime: 'text/csv' },
   { id: 'json', label: 'JSON (with each spectrum\'s line measurements)', ext: 'json', mime: 'application/json' },
   { id: 'fits', label: 'FITS binary table (line measurements in a second table, LINES)', ext: 'fits', mime: 'application/fits' },
-  { id: 'votable', label: 'VOTable 1.4', ext: 'vot', mime: 'application/x-votable+xml' },
+  { id: 'votable', label: 'VOTable 1.4 (line measurements in a second table)', ext: 'vot', mime: 'application/x-votable+xml' },
   { id: 'lines-csv', label: 'Line measurements CSV (one row per spectrum and line)', ext: 'csv', mime: 'text/csv' },
 ];
 
@@ -99,7 +99,7 @@ export async function buildExport(
       data = catalogueCsv(flat(), LINE_COLUMNS, meta, { headerBlock: true });
       break;
     case 'votable':
-      data = catalogueVotable(rows, cols, meta);
+      data = catalogueVotable(rows, cols, meta, flat());
       break;
   }
   return { data, rowCount: rows.length, lineCount, notFitted };

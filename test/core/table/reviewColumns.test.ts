@@ -87,13 +87,13 @@ describe('every writer carries the review columns', () => {
     expect(doc.rows[1].line_observed_a).toBeNull();
     expect(doc.columns.find((c) => c.name === 'line_observed_a')).toMatchObject({ unit: 'Angstrom', type: 'float' });
   });
-  it('VOTable: a double FIELD in Angstrom for the wavelength, char FIELDs for the line and the flags, the cells in TD', () => {
+  it('VOTable: a double FIELD in 0.1 nm (Angstrom in VOUnit 1.0 sec. 2.5 spelling) for the wavelength, char FIELDs for the line and the flags, the cells in TD', () => {
     const doc = new DOMParser().parseFromString(catalogueVotable(rows, CATALOGUE_COLUMNS, META), 'application/xml');
     expect(doc.getElementsByTagName('parsererror').length).toBe(0);
     const fields = [...doc.getElementsByTagName('FIELD')];
     const at = (n: string) => fields.findIndex((f) => f.getAttribute('name') === n);
     expect(fields[at('line_observed_a')].getAttribute('datatype')).toBe('double');
-    expect(fields[at('line_observed_a')].getAttribute('unit')).toBe('Angstrom');
+    expect(fields[at('line_observed_a')].getAttribute('unit')).toBe('0.1nm');
     expect(fields[at('review_flags')].getAttribute('datatype')).toBe('char');
     const tds = [...doc.getElementsByTagName('TR')[0].getElementsByTagName('TD')].map((t) => t.textContent);
     expect([tds[at('line_id')], tds[at('line_observed_a')], tds[at('review_flags')]]).toEqual(['CIV', '5338.800', 'broad-absorption;blend']);

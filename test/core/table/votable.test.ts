@@ -1,6 +1,7 @@
 // @vitest-environment jsdom
 import { describe, expect, it } from 'vitest';
-import { catalogueVotable, xmlEscape } from '../../../src/core/table/votable';
+import { catalogueVotable, voUnit, xmlEscape } from '../../../src/core/table/votable';
+import { LINE_COLUMNS, lineRows } from '../../../src/core/table/lines';
 import { CATALOGUE_COLUMNS } from '../../../src/core/table/columns';
 import { catalogueRow } from '../../../src/core/table/rows';
 import { DEFAULT_COSMOLOGY } from '../../../src/core/cosmology';
@@ -71,7 +72,8 @@ describe('catalogueVotable(rows, columns, meta)', () => {
     expect(info.caution).toMatch(/hypotheses/);
     const params = Object.fromEntries([...doc.getElementsByTagName('PARAM')].map((e) => [e.getAttribute('name'), e]));
     expect(params.H0.getAttribute('value')).toBe('70');
-    expect(params.H0.getAttribute('unit')).toBe('km/s/Mpc');
+    // VOUnit 1.0 sec. 2.3: no second solidus ('km/s/Mpc' is ambiguous); a product of powers instead.
+    expect(params.H0.getAttribute('unit')).toBe('km.s**-1.Mpc**-1');
     expect(Number(params.Omega_Lambda.getAttribute('value'))).toBeCloseTo(0.7, 12);
   });
   it('has one TR per row with one TD per FIELD holding the table cells, text intact after escaping', () => {
@@ -96,5 +98,101 @@ describe('catalogueVotable(rows, columns, meta)', () => {
     const d = parse(catalogueVotable([], CATALOGUE_COLUMNS, META));
     expect(d.getElementsByTagName('TR').length).toBe(0);
     expect(d.getElementsByTagName('FIELD').length).toBe(CATALOGUE_COLUMNS.length);
+  });
+});
+
+/**
+ * A small VOUnit 1.0 checker (IVOA Recommendation 2014): sec. 2.3 syntax (an
+ * optional numeric factor, units joined by '.', powers as '**n', at most one
+ * solidus), sec. 2.4 units with the SI prefixes they may take. Only the units
+ * this project could write are listed; 'Angstrom' is deprecated (sec. 2.5).
+ */
+const PREFIXED = ['m', 's', 'pc', 'yr', 'arcsec', 'g', 'Jy'];
+const PLAIN = ['deg', 'mag', 'Angstrom'];
+const SI_PREFIX = '(?:da|[yzafpnumcdhkMGTPEZY])?';
+const ATOM = `(?:${SI_PREFIX}(?:${PREFIXED.join('|')})|${PLAIN.join('|')})(?:\\*\\*-?\\d+)?`;
+const PRODUCT = `${ATOM}(?:\\.${ATOM})*`;
+const VOUNIT = new RegExp(`^(?:\\d+(?:\\.\\d+)?)?${PRODUCT}(?:/${ATOM})?$`);
+const vounitOk = (u: string) => VOUNIT.test(u) && !/Angstrom/.test(u);
+
+/** VOTable 1.4 sec. 2.1, table 1: the primitive datatypes. */
+const DATATYPES = ['boolean', 'bit', 'unsignedByte', 'short', 'int', 'long', 'char', 'unicodeChar', 'float', 'double', 'floatComplex', 'doubleComplex'];
+
+describe('the checker of VOUnit strings (test helper)', () => {
+  it('accepts VOUnit spellings and refuses what VOUnit 1.0 rules out, so the checks below can fail', () => {
+    for (const u of ['deg', 'Mpc', 'Gyr', 'km/s', 'kpc/arcsec', '0.1nm', 'km.s**-1.Mpc**-1', 'mag']) expect(vounitOk(u), u).toBe(true);
+    for (const u of ['km/s/Mpc', 'Angstrom', 'km s-1', 'parsec']) expect(vounitOk(u), u).toBe(false);
+  });
+  it('voUnit rewrites only the deprecated Angstrom', () => {
+    expect(voUnit('Angstrom')).toBe('0.1nm'); // VOUnit 1.0 sec. 2.5: 1 Angstrom = 0.1 nm
+    expect(voUnit('km/s')).toBe('km/s');
+  });
+});
+
+describe('catalogueVotable against the VOTable 1.4 rules', () => {
+  const rows = [catalogueRow(okResult(), decision({ note: 'Zoë' }), DEFAULT_COSMOLOGY), catalogueRow(failedResult(), undefined, DEFAULT_COSMOLOGY)];
+  const withLine = okResult({
+    lines: [
+      { id: 'CIV', label: 'C IV', kind: 'emission', restA: 1549.48, observedA: 5184.3, observedErrA: 0.4, z: 2.3458, zErr: 0.0003, fwhmKms: 3000, fwhmErrKms: 100, flux: 12, fluxErr: 1, ewRestA: 30, ewRestErrA: 2, snr: 12, detected: true },
+    ],
+  });
+  const lines = lineRows(withLine);
+  const xml = catalogueVotable(rows, CATALOGUE_COLUMNS, META, lines);
+  const doc = parse(xml);
+
+  it('starts with the XML declaration (XML 1.0 sec. 2.8) naming UTF-8, and points xsi:schemaLocation at the 1.4 schema', () => {
+    expect(xml.startsWith('<?xml version="1.0" encoding="UTF-8"?>\n')).toBe(true);
+    const loc = doc.documentElement.getAttributeNS('http://www.w3.org/2001/XMLSchema-instance', 'schemaLocation')!.split(/\s+/);
+    expect(loc).toEqual([NS, 'http://www.ivoa.net/xml/VOTable/votable-1.4.xsd']);
+  });
+
+  it('gives every FIELD a name and a known datatype, every text FIELD an arraysize, every PARAM a value, every INFO name and value', () => {
+    for (const f of [...doc.getElementsByTagName('FIELD'), ...doc.getElementsByTagName('PARAM')]) {
+      expect(f.getAttribute('name')).toBeTruthy();
+      expect(DATATYPES).toContain(f.getAttribute('datatype'));
+      // sec. 2.2: char without arraysize is one character, so strings need arraysize="*".
+      if (/char/i.test(f.getAttribute('datatype')!)) expect(f.getAttribute('arraysize')).toBe('*');
+    }
+    for (const p of doc.getElementsByTagName('PARAM')) expect(p.hasAttribute('value')).toBe(true); // sec. 4.1: value is required
+    for (const i of doc.getElementsByTagName('INFO')) {
+      expect(i.hasAttribute('name')).toBe(true);
+      expect(i.hasAttribute('value')).toBe(true);
+    }
+  });
+
+  it('writes every unit in VOUnit (no deprecated Angstrom, no double solidus)', () => {
+    const units = [...doc.querySelectorAll('[unit]')].map((e) => e.getAttribute('unit')!);
+    expect(units.length).toBeGreaterThan(5);
+    for (const u of units) expect(vounitOk(u), u).toBe(true);
+  });
+
+  it('uses UCD1+ words for the file column (meta.id;meta.dataset, as the SSA standard does for a dataset id)', () => {
+    const file = [...doc.getElementsByTagName('FIELD')].find((f) => f.getAttribute('name') === 'file')!;
+    expect(file.getAttribute('ucd')).toBe('meta.id;meta.dataset');
+  });
+
+  it('orders elements as the 1.4 schema does: RESOURCE (DESCRIPTION, INFO, TABLE...), TABLE (DESCRIPTION, PARAM, FIELD, DATA)', () => {
+    const resource = doc.getElementsByTagName('RESOURCE')[0];
+    const kids = (e: Element) => [...e.children].map((c) => c.localName);
+    const order = (names: string[], expected: string[]) => names.map((n) => expected.indexOf(n));
+    const r = order(kids(resource), ['DESCRIPTION', 'INFO', 'TABLE']);
+    expect(r).toEqual([...r].sort((a, b) => a - b));
+    expect(r).not.toContain(-1);
+    for (const t of doc.getElementsByTagName('TABLE')) {
+      const k = order(kids(t), ['DESCRIPTION', 'PARAM', 'FIELD', 'DATA']);
+      expect(k).toEqual([...k].sort((a, b) => a - b));
+      expect(k).not.toContain(-1);
+    }
+  });
+
+  it('puts the line table in a second TABLE, one row per spectrum and line', () => {
+    const tables = [...doc.getElementsByTagName('TABLE')];
+    expect(tables.map((t) => t.getAttribute('name'))).toEqual(['redshift_catalogue', 'line_measurements']);
+    expect(tables[1].getAttribute('nrows')).toBe('1');
+    expect([...tables[1].getElementsByTagName('FIELD')].map((f) => f.getAttribute('name'))).toEqual(LINE_COLUMNS.map((c) => c.name));
+    const tds = [...tables[1].getElementsByTagName('TD')].map((td) => td.textContent);
+    expect(tds).toEqual(LINE_COLUMNS.map((c) => lines[0][c.name]));
+    // Without lines, one TABLE as before.
+    expect(parse(catalogueVotable(rows, CATALOGUE_COLUMNS, META)).getElementsByTagName('TABLE').length).toBe(1);
   });
 });

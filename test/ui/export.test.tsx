@@ -165,4 +165,27 @@ describe('ExportPanel', () => {
     spy.mockRestore();
     db.close();
   });
+
+  it('offers the line measurements CSV, saved under its own name with the line columns', async () => {
+    const { session, db } = await makeSession(undefined, new ScriptedFitter());
+    await session.addFiles([{ path: 'night1/a.txt', bytes: textBytes('a') }]);
+    await waitUntil(() => session.getSnapshot().rows[0]?.status === 'ok', 'fit');
+    const blobs: Blob[] = [];
+    Object.assign(URL, { createObjectURL: vi.fn((b: Blob) => (blobs.push(b), 'blob:test')), revokeObjectURL: vi.fn() });
+    const clicks: string[] = [];
+    const spy = vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(function (this: HTMLAnchorElement) {
+      clicks.push(this.download);
+    });
+    render(<App services={{ session, review: fakeReview() }} />);
+    await screen.findByTestId('review-panel');
+    fireEvent.keyDown(window, { key: 't' });
+    fireEvent.click(await screen.findByLabelText(/Line measurements CSV/));
+    fireEvent.click(await screen.findByTestId('export-download'));
+    await screen.findByText(/line rows from 1 spectra/);
+    expect(clicks[0]).toMatch(/^shiftmark-lines-.*\.csv$/);
+    const parsed = parseCatalogueCsv(await blobs[0].text());
+    expect(parsed.columns).toEqual(LINE_COLUMNS.map((c) => c.name));
+    spy.mockRestore();
+    db.close();
+  });
 });

@@ -23,6 +23,15 @@ import { flagByKey } from './flags';
 import { useReviewSession } from './useReviewSession';
 import { fmtNum, fmtRangeA, fmtZ } from '../format';
 
+/** Plain words for the engine's mask reasons (src/core/engine/artifacts.ts). */
+const MASK_REASON_WORDS: Record<string, string> = {
+  'identical-run': 'in runs of one repeated value',
+  'roll-off': 'of roll-off beside a dead end',
+  edge: 'at the ends',
+  'edge-step': 'in a step at an end',
+  negative: 'far below zero',
+};
+
 export interface ReviewHandle {
   /** Run a key action; true when the panel used it. */
   handle(action: ActionId, key: string): boolean;
@@ -127,6 +136,11 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
         {summary && summary.nPix > 0 && (
           <span className="muted">
             {summary.nPix} pixels, {fmtRangeA(summary.lambdaMinA, summary.lambdaMaxA)}
+          </span>
+        )}
+        {result?.masked && result.masked.length > 0 && (
+          <span className="muted" data-testid="review-masked" title="Input pixels the engine masked before fitting, by reason">
+            masked before the fit: {result.masked.map((m) => `${m.pixels} ${MASK_REASON_WORDS[m.reason] ?? m.reason}`).join(', ')}
           </span>
         )}
       </header>

@@ -6,6 +6,7 @@
  * floor(SPIKE_WINDOW_PX / 2) pixels wide and keeps anything wider (a resolved
  * line spans several pixels). Pure, no DOM.
  */
+import { medianInPlace } from '../../core/numeric/median';
 
 /** Running-median window, pixels (odd). 5 removes spikes of 1-2 pixels. */
 export const SPIKE_WINDOW_PX = 5;
@@ -13,11 +14,6 @@ export const SPIKE_WINDOW_PX = 5;
 /** Fraction of the data range added above and below, so lines do not touch the frame. */
 export const Y_PAD_FRACTION = 0.06;
 
-function median(buf: number[]): number {
-  buf.sort((a, b) => a - b);
-  const m = buf.length >> 1;
-  return buf.length % 2 ? buf[m] : 0.5 * (buf[m - 1] + buf[m]);
-}
 
 /**
  * [low, high] (flux units) for y[i0..i1), padded by Y_PAD_FRACTION of the span,
@@ -45,14 +41,14 @@ export function robustYRange(y: Float64Array, i0: number, i1: number): [number, 
   if (nFinite < 3 * SPIKE_WINDOW_PX) return padRange(lo, hi);
   lo = Infinity;
   hi = -Infinity;
-  const buf: number[] = [];
+  const buf = new Float64Array(SPIKE_WINDOW_PX);
   for (let i = a; i < b; i++) {
     if (!Number.isFinite(y[i])) continue;
-    buf.length = 0;
+    let n = 0;
     const ja = Math.max(0, i - half);
     const jb = Math.min(y.length - 1, i + half);
-    for (let j = ja; j <= jb; j++) if (Number.isFinite(y[j])) buf.push(y[j]);
-    const m = median(buf);
+    for (let j = ja; j <= jb; j++) if (Number.isFinite(y[j])) buf[n++] = y[j];
+    const m = medianInPlace(buf, n);
     if (m < lo) lo = m;
     if (m > hi) hi = m;
   }

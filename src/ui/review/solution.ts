@@ -50,7 +50,7 @@ export function keyedCandidates(candidates: readonly Candidate[], max = CANDIDAT
 /** Family whose model to draw: the solution's own, else a typical one for its class. */
 export function modelFamily(s: Solution): string | null {
   if (s.family) return s.family;
-  return s.cls === 'qso' ? 'qso' : s.cls === 'galaxy' ? 'galaxy-sf' : s.cls === 'star' ? 'star' : null;
+  return s.cls === 'qso' ? 'qso' : s.cls === 'galaxy' ? 'galaxy' : s.cls === 'star' ? 'star' : null;
 }
 
 /** The automatic best solution of a fit, or null when the fit failed. */

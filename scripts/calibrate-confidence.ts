@@ -11,6 +11,7 @@
  */
 import { writeFileSync, mkdirSync } from 'node:fs';
 import { confidenceFeatures, confidenceInputOf, FEATURE_NAMES } from '../src/core/engine/confidence';
+import { choleskySolve } from '../src/core/numeric/cholesky';
 import { heldOutItems, realItems, simulatorItems, type EvalItem, type SourceId } from './lib/sources';
 
 const arg = (name: string, dflt: number) => {
@@ -77,20 +78,12 @@ function fitLogistic(rs: Row[], ridge = 1e-2): number[] {
   return b;
 }
 
+/** The Newton step H x = g (H is the logistic Hessian plus ridge: symmetric positive definite) with the project's Cholesky. */
 function solve(A: number[][], y: number[]): number[] {
   const n = y.length;
-  const M = A.map((r, i) => [...r, y[i]]);
-  for (let c = 0; c < n; c++) {
-    let piv = c;
-    for (let r = c + 1; r < n; r++) if (Math.abs(M[r][c]) > Math.abs(M[piv][c])) piv = r;
-    [M[c], M[piv]] = [M[piv], M[c]];
-    for (let r = 0; r < n; r++) {
-      if (r === c) continue;
-      const f = M[r][c] / M[c][c];
-      for (let k = c; k <= n; k++) M[r][k] -= f * M[c][k];
-    }
-  }
-  return M.map((r, i) => r[n] / r[i]);
+  const x = new Float64Array(n);
+  choleskySolve(Float64Array.from(A.flat()), Float64Array.from(y), n, x, new Float64Array(n * n), new Int32Array(n));
+  return Array.from(x);
 }
 
 const score = (b: number[], x: number[]) => 1 / (1 + Math.exp(-(b[0] + x.reduce((s, v, k) => s + v * b[k + 1], 0))));

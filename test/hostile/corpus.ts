@@ -10,6 +10,7 @@
 import { gzipSync } from 'fflate';
 import { fitsCard, fitsHeaderBytes, writeBinTableHdu, writeFitsFile, writeImageHdu } from '../../src/core/io/fits/write';
 import { gzipBomb } from './deflateBomb';
+import { concatBytes } from './fitsParts';
 import { mulberry32 } from '../../src/core/sim/prng';
 import {
   IMAGE_WCS,
@@ -56,15 +57,7 @@ function floatData(n: number): Uint8Array {
   return out;
 }
 
-const concat = (...parts: Uint8Array[]): Uint8Array => {
-  const out = new Uint8Array(parts.reduce((a, p) => a + p.length, 0));
-  let o = 0;
-  for (const p of parts) {
-    out.set(p, o);
-    o += p.length;
-  }
-  return out;
-};
+const concat = concatBytes;
 
 /** A primary image header (flux, float32) with the given cards replacing or adding to the defaults. */
 function imageWithCards(cards: string[], n = 64): Uint8Array {

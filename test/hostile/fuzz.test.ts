@@ -16,7 +16,7 @@ import { fitsHeaderBytes, writeBinTableHdu, writeEmptyPrimaryHdu, writeImageHdu 
 import { SpectrumReadError, type Spectrum } from '../../src/core/types';
 import { rawCard } from './corpus';
 import { checkSpectrumInvariants } from './invariants';
-import { joinHdus, splitHdu, type HduParts } from './fitsParts';
+import { joinHdus, splitHdu, withCardEdits, type HduParts } from './fitsParts';
 import { IMAGE_WCS, utf8, validArrays, validCsvText, validImageFits, validTableFits } from './validFiles';
 
 /** Pixels of the fuzzed FITS files: small, so one read is fast and mutations hit headers often. */
@@ -156,15 +156,7 @@ describe('fuzz: every reader, seeded', () => {
         fc.nat({ max: sets.length - 1 }),
         fc.array(fc.tuple(fc.nat(), fc.constantFrom(...KEYWORDS), valueText, fc.boolean()), { minLength: 1, maxLength: 4 }),
         (which, edits) => {
-          const hdus = sets[which].map((h) => ({ cards: [...h.cards], data: h.data }));
-          for (const [hduPick, key, value, replace] of edits) {
-            const h = hdus[hduPick % hdus.length];
-            const card = key === 'END' ? rawCard('END') : rawCard(`${key.padEnd(8)}= ${value}`);
-            const at = h.cards.findIndex((c) => c.startsWith(key.padEnd(8)));
-            if (replace && at >= 0) h.cards[at] = card;
-            else h.cards.splice(1 + (hduPick % h.cards.length), 0, card); // anywhere after the first card
-          }
-          readOrRefuse(joinHdus(hdus), 'cards.fits');
+          readOrRefuse(joinHdus(withCardEdits(sets[which], edits, rawCard)), 'cards.fits');
         },
       ),
       { seed: 4103 + SEED_OFFSET, numRuns: 6000 },

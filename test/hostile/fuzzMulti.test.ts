@@ -12,7 +12,7 @@ import { MAX_REASON_CHARS } from '../../src/core/io/readSpectrum';
 import { writeBinTableHdu, writeEmptyPrimaryHdu } from '../../src/core/io/fits/write';
 import { SpectrumReadError } from '../../src/core/types';
 import { rawCard } from './corpus';
-import { joinHdus, splitHdu } from './fitsParts';
+import { joinHdus, splitHdu, withCardEdits } from './fitsParts';
 import { checkSpectrumInvariants } from './invariants';
 import { validMultiObjectFiles } from './validFiles';
 
@@ -106,15 +106,7 @@ describe('fuzz: readSpectra on multi-object files, seeded', () => {
         fc.nat({ max: sets.length - 1 }),
         fc.array(fc.tuple(fc.nat(), fc.constantFrom(...KEYWORDS), valueText, fc.boolean()), { minLength: 1, maxLength: 4 }),
         (which, edits) => {
-          const hdus = sets[which].map((h) => ({ cards: [...h.cards], data: h.data }));
-          for (const [pick, key, value, replace] of edits) {
-            const h = hdus[pick % hdus.length];
-            const card = rawCard(`${key.padEnd(8)}= ${value}`);
-            const at = h.cards.findIndex((c) => c.startsWith(key.padEnd(8)));
-            if (replace && at >= 0) h.cards[at] = card;
-            else h.cards.splice(1 + (pick % h.cards.length), 0, card);
-          }
-          judge(joinHdus(hdus), 'plate.fits');
+          judge(joinHdus(withCardEdits(sets[which], edits, rawCard)), 'plate.fits');
         },
       ),
       { seed: 5102 + SEED_OFFSET, numRuns: 3000 },

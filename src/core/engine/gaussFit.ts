@@ -1,4 +1,8 @@
 /**
+ * Over 400 lines on purpose: one Levenberg-Marquardt fit with its bounds,
+ * covariance and error propagation, kept together so the numbers it reports
+ * have one home.
+ *
  * Weighted least-squares fit of one Gaussian on a straight-line continuum,
  *
  *   f(x) = amplitude * exp(-(x - centre)^2 / (2 sigma^2)) + c0 + c1 * (x - xRef),
@@ -10,8 +14,6 @@
  * x is in any unit (Angstrom in this project); amplitude, c0 in the unit of y;
  * c1 in y-unit per x-unit. Weights are inverse variances (1 / sigma_y^2);
  * a weight of 0 (or a non-finite x, y or weight) drops the point.
- * Over 300 lines: one Levenberg-Marquardt fit with its bounds, covariance and
- * error propagation, kept together so the numbers it reports have one home.
  */
 import { choleskyFactor, choleskyFactorSolve, inverseSpd, inverseSpdInto } from '../numeric/cholesky';
 

@@ -1,4 +1,7 @@
 /**
+ * Over 400 lines on purpose: the plot's layout, the stars' own km/s panel and
+ * the candidate marks share one set of scales and one d3 drawing pass.
+ *
  * Fit quality against redshift: delta chi-square per template family on a
  * symmetric-log y axis (the minima near 0 get room, the large values still show),
  * numbered candidate marks, and a rule at the current redshift. React owns the

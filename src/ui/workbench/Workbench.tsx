@@ -1,4 +1,7 @@
 /**
+ * Over 400 lines on purpose: the screen's key handling and panel switching are
+ * one state machine; the panels themselves are separate components.
+ *
  * The review screen: the list on the left, the current spectrum on the
  * right, panels over both. One keyboard handler drives the whole loop
  * (KEY_MAP); keys typed into a text field stay there.

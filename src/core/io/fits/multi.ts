@@ -1,4 +1,8 @@
 /**
+ * Over 400 lines on purpose: both multi-spectrum layouts share the fibre-table
+ * reading, id rules and per-row error handling, which would only be passed
+ * around if split.
+ *
  * Files holding many spectra: one per fibre, slit or object. Two layouts:
  *
  * - Image rows. A 2-D image whose rows are spectra on one wavelength axis

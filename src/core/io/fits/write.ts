@@ -1,4 +1,8 @@
 /**
+ * Over 400 lines on purpose: the one FITS writer (cards, image and binary-
+ * table HDUs, padding); each part is small, and the byte rules they share live
+ * here once.
+ *
  * A small FITS writer: header cards, IMAGE and BINTABLE HDUs, whole files.
  *
  * Follows the FITS Standard 4.0 (IAU FITS Working Group, 2016; version 3.0 is

@@ -1,11 +1,15 @@
 /**
+ * Over 400 lines on purpose: one recipe per family (quasar, galaxy, star) and
+ * the few helpers they share, so every choice made about a published spectrum
+ * is read in one place.
+ *
  * How each template family is built from the published spectra in
  * src/core/templates/published/ (citations in its README.md and INDEX.csv).
  * Pure functions of the tables, so a test can rebuild a family with one
  * source spectrum held out and fit spectra made from that spectrum.
  */
 import type { SpectrumClass } from '../../types';
-import { C_KMS, KMS_PER_PIXEL, DLOG10 } from '../../engine/logGrid';
+import { C_KMS, KMS_PER_PIXEL, DLOG10, pixelOfWavelength } from '../../engine/logGrid';
 import { LYMAN_LIMIT_A, restWavelengthA } from '../../lines/catalogue';
 import { eigenspectra } from './eigenspectra';
 import type { TemplateTable } from './readTemplateCsv';
@@ -46,7 +50,8 @@ export interface FamilyBasis {
   polynomialFromA?: number;
 }
 
-const kOf = (lambdaA: number) => Math.round(Math.log10(lambdaA) / DLOG10);
+/** The log-grid pixel nearest a wavelength, Angstrom. */
+const kOf = (lambdaA: number) => Math.round(pixelOfWavelength(lambdaA));
 
 /** See FamilyBasis.eigenDims: 99 % (the first eigenspectra of a library are its real dimensions, e.g. temperature and gravity for stars). */
 export const EIGEN_DIMS_FRACTION = 0.99;

@@ -1,0 +1,11 @@
+export { contentHash, textHash, isContentHash } from './contentHash';
+export { assignReviewers, checkReviewers, type Assignment } from './assign';
+export { TEAM_TAG_VERSION, teamTagProblems, type TeamTag, type PacketSpectrum } from './teamTag';
+export { batchIdOf, planPackets, DEFAULT_PER_SPECTRUM, type PacketPlan } from './packets';
+export { verdictSetFromSession, TeamFileError, type SessionLike, type VerdictSet, type Verdict, type TeamSpectrum, type MachineSolution } from './verdictSet';
+export { mergeVerdictSets, countedBySpectrum, type MergedBatch, type MergedVerdict } from './merge';
+export { DEFAULT_TOLERANCE, DEFAULT_RULE, AGREEMENT_STATES, checkRule, scaledDz, verdictsAgree, agreementOf, type AgreementRule, type AgreementState } from './agreement';
+export { cohenKappa, confusionTable, type KappaResult } from './kappa';
+export { consensusOf, latestSettlements, type Consensus, type Settlement } from './consensus';
+export { teamStatistics, CLASSES, type TeamStatistics, type PairStats, type ReviewerStats, type Rate } from './statistics';
+export { teamReportText } from './report';

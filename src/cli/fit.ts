@@ -1,7 +1,10 @@
 /**
  * Headless fitter: `npm run fit -- <files or folders...> --out table.csv`.
- * One row per input file, in input order; an unreadable file gets a row with
- * its reason in `error` and never stops the batch. CSV and JSON rows stream to
+ * One row per spectrum, in input order: a file of one spectrum is one row, a
+ * multi-object file one row per target spectrum (`file#n`, see
+ * core/pipeline.ts), each fitted as its own job. An unreadable file or row
+ * gets a row with its reason in `error` and never stops the batch; when every
+ * row failed the run ends with exit status 1. CSV and JSON rows stream to
  * the output as they finish (in order), so memory stays flat for any batch
  * size; FITS and VOTable are sized from all rows, so they are written at the end.
  * A missing input path, or inputs that hold no file, stop the run before any
@@ -92,6 +95,7 @@ async function main(argv: string[]): Promise<number> {
   const started = Date.now();
   let done = 0;
   let failed = 0;
+  let filesDone = 0;
   const tty = process.stderr.isTTY;
   let lastReport = 0;
   const progress = (final = false) => {
@@ -101,41 +105,49 @@ async function main(argv: string[]): Promise<number> {
     lastReport = Date.now();
     const rate = done / Math.max(1e-3, (Date.now() - started) / 1000);
     const peakMb = process.resourceUsage().maxRSS / 1024; // kilobytes -> MB; covers every worker thread
-    const text = `fitted ${done}/${files.length}, ${failed} failed, ${rate.toFixed(1)} spectra/s, peak memory ${peakMb.toFixed(0)} MB`;
+    const text = `fitted ${done} spectra from ${filesDone}/${files.length} files, ${failed} failed, ${rate.toFixed(1)} spectra/s, peak memory ${peakMb.toFixed(0)} MB`;
     process.stderr.write(tty ? `\r${text}${final ? '\n' : ''}` : `${text}\n`);
+  };
+
+  type Fitted = { row: Record<string, unknown>; lines: Record<string, unknown>[] };
+  /** One unit of work (a file's first look, or one spectrum of a multi-object file); never rejects. */
+  const runJob = (job: FitJob): Promise<FitJobResult> =>
+    pool.run(job).then(
+      (r) => r,
+      (e: Error) => {
+        const status = e instanceof JobFailure && e.kind === 'timeout' ? 'timeout' : 'failed';
+        const row = automaticRow(failedResult(job.name, `${job.name}: ${e.message}`, status), cosmology) as unknown as Record<string, unknown>;
+        return { row, lines: [] };
+      },
+    );
+  /** A file's rows: its one fit, or one fit per spectrum of a multi-object file (each its own job), in file order. */
+  const fitFile = async (path: string, name: string): Promise<Fitted[]> => {
+    const first = await runJob({ path, name, cosmology, firstLook: true });
+    if (!('split' in first)) return [first];
+    return Promise.all(first.split.map((id) => runJob({ path, name: id, cosmology }) as Promise<Fitted>));
   };
 
   // Bounded window: at most `window` files in flight or waiting to be written in order.
   const window = Math.max(4 * jobs, 16);
-  const inFlight = new Map<number, Promise<FitJobResult>>();
+  const inFlight = new Map<number, Promise<Fitted[]>>();
   let next = 0;
-  const launch = (k: number) => {
-    const { path, name } = files[k];
-    inFlight.set(
-      k,
-      pool.run({ path, name, cosmology }).then(
-        (r) => r,
-        (e: Error) => {
-          const status = e instanceof JobFailure && e.kind === 'timeout' ? 'timeout' : 'failed';
-          const row = automaticRow(failedResult(name, `${name}: ${e.message}`, status), cosmology) as unknown as Record<string, unknown>;
-          return { row, lines: [] };
-        },
-      ),
-    );
-  };
+  const launch = (k: number) => inFlight.set(k, fitFile(files[k].path, files[k].name));
   while (next < files.length && next < window) launch(next++);
   for (let k = 0; k < files.length; k++) {
-    const { row, lines } = await inFlight.get(k)!;
+    const fitted = await inFlight.get(k)!;
     inFlight.delete(k);
     if (next < files.length) launch(next++);
-    done++;
-    if (row.error) failed++;
-    if (writer) await write(writer.row(row, lines));
-    else {
-      collected.push(row as TableRow);
-      collectedLines.push(...(lines as TableRow[]));
+    filesDone++;
+    for (const { row, lines } of fitted) {
+      done++;
+      if (row.error) failed++;
+      if (writer) await write(writer.row(row, lines));
+      else {
+        collected.push(row as TableRow);
+        collectedLines.push(...(lines as TableRow[]));
+      }
+      if (linesOut && linesWriter) for (const l of lines) await writeTo(linesOut, linesWriter.row(l));
     }
-    if (linesOut && linesWriter) for (const l of lines) await writeTo(linesOut, linesWriter.row(l));
     progress();
   }
   if (writer) await write(writer.end());
@@ -146,6 +158,11 @@ async function main(argv: string[]): Promise<number> {
   const close = (stream: WriteStream | NodeJS.WriteStream) => new Promise<void>((res) => (stream as WriteStream).end(res));
   if (outPath) await close(out);
   if (linesOut) await close(linesOut);
+  if (done > 0 && failed === done) {
+    // A table of errors only is no catalogue: say so, and let a script (or a scheduler's afterok) see it.
+    process.stderr.write(`error: none of the ${done} spectra in ${files.length} file${files.length === 1 ? '' : 's'} could be read and fitted; the error column of ${outPath ?? 'the table'} says why for each\n`);
+    return 1;
+  }
   return 0;
 }
 

@@ -1,10 +1,20 @@
 /**
  * Join the CSV tables of the shards of one run into one table, checking that
  * the shards belong together (same input list), that none is missing or
- * repeated, and that every input appears exactly once.
+ * repeated, and that every input appears exactly once (a multi-object file
+ * as its rows `file#n`, all in one shard).
  */
 import { columnByName, csvRecord, guardCell, parseCatalogueCsv, type ParsedCatalogue } from '../core/table';
 import { parseShard } from './shard';
+import { rowOfId } from '../core/io/readSpectra';
+
+/**
+ * The input file a row comes from: its `file` cell, less the `#n` that names
+ * one spectrum of a multi-object file (index 0 for a file of one spectrum).
+ */
+function inputOf(file: string): { file: string; index: number } {
+  return rowOfId(file) ?? { file, index: 0 };
+}
 
 export class MergeError extends Error {
   constructor(message: string) {
@@ -51,17 +61,22 @@ export function mergeShardTables(tables: readonly ShardTable[]): string {
   for (let i = 1; i <= count; i++) if (!byIndex.has(i)) missing.push(`${i}/${count}`);
   if (missing.length) throw new MergeError(`missing shard${missing.length > 1 ? 's' : ''} ${missing.join(', ')}`);
 
-  const rows = parsed.flatMap((p) => p.t.rows.map((r) => ({ r, from: p.name })));
+  const rows = parsed.flatMap((p) => p.t.rows.map((r) => ({ r, from: p.name, at: inputOf(r.file) })));
   const seen = new Map<string, string>();
-  for (const { r, from } of rows) {
+  const inputShard = new Map<string, string>();
+  for (const { r, from, at } of rows) {
     const prev = seen.get(r.file);
     if (prev !== undefined) throw new MergeError(`input ${r.file} appears twice (in ${prev} and ${from})`);
     seen.set(r.file, from);
+    // The spectra of one multi-object file are fitted in one shard: a file split over two is two runs mixed.
+    const shardOf = inputShard.get(at.file);
+    if (shardOf !== undefined && shardOf !== from) throw new MergeError(`input ${at.file} has rows in ${shardOf} and in ${from}`);
+    inputShard.set(at.file, from);
   }
   const total = Number(first.t.meta['inputs_total']);
-  if (rows.length !== total) throw new MergeError(`the shards hold ${rows.length} rows but the run had ${total} inputs`);
-  // Same order as a single unsharded run (sorted input list).
-  rows.sort((a, b) => (a.r.file < b.r.file ? -1 : a.r.file > b.r.file ? 1 : 0));
+  if (inputShard.size !== total) throw new MergeError(`the shards hold rows of ${inputShard.size} input files but the run had ${total} inputs`);
+  // Same order as a single unsharded run: the sorted input list, the spectra of a file by their number.
+  rows.sort((a, b) => (a.at.file < b.at.file ? -1 : a.at.file > b.at.file ? 1 : a.at.index - b.at.index));
 
   let text = '';
   for (const [k, v] of Object.entries(first.t.meta)) text += k === 'shard' ? `# merged_shards: ${count}\r\n` : `# ${k}: ${v}\r\n`;

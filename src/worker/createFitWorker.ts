@@ -4,6 +4,7 @@
  */
 import { transfer, wrap, type Remote } from 'comlink';
 import type { FitResult } from '../core/types';
+import type { FileWork } from '../core/pipeline';
 import type { FitWorkerApi } from './fitWorkerApi';
 import type { PoolWorker } from './pool';
 
@@ -30,5 +31,9 @@ export function createPoolWorker(): PoolWorker {
  * caller's buffer is empty afterwards.
  */
 export function poolWorkerOver({ api, terminate }: FitWorkerHandle): PoolWorker {
-  return { fitFile: (bytes, file) => api.fitFile(transfer(bytes, [bytes.buffer as ArrayBuffer]), file) as Promise<FitResult>, terminate };
+  return {
+    fitFile: (bytes, file) => api.fitFile(transfer(bytes, [bytes.buffer as ArrayBuffer]), file) as Promise<FitResult>,
+    fitOrSplit: (bytes, file) => api.fitOrSplit(transfer(bytes, [bytes.buffer as ArrayBuffer]), file) as Promise<FileWork>,
+    terminate,
+  };
 }

@@ -8,8 +8,8 @@
 import { transfer } from 'comlink';
 import type { FitResult, LineMeasurement, Spectrum, SpectrumClass } from '../core/types';
 import { SpectrumReadError } from '../core/types';
-import { fitBytes } from '../core/pipeline';
-import { readSpectrum } from '../core/io/readSpectrum';
+import { fitBytes, fitOrSplit, type FileWork } from '../core/pipeline';
+import { readSpectrumById } from '../core/io/readSpectra';
 import { FitWorkspace, locateFeature, measureLines, refitNear, solutionModel, suggestLines } from '../core/engine';
 
 /** This worker's engine workspace: FFT plans and template transforms reused from fit to fit. */
@@ -35,8 +35,10 @@ export interface FeatureAnswer {
 }
 
 export interface FitWorkerApi {
-  /** Read and fit one file's bytes (never throws; failures come back as status 'failed'). */
+  /** Read and fit the spectrum `file` names (a file, or `file#n` of a multi-object file); never throws: failures come back as status 'failed'. */
   fitFile(bytes: Uint8Array, file: string): FitResult;
+  /** First look at a file: fitted when it holds one spectrum, else the ids of its spectra (core/pipeline.ts). */
+  fitOrSplit(bytes: Uint8Array, file: string): FileWork;
   /** Parse a file for display; without bytes, answers from the cache or asks for them. */
   openSpectrum(key: string, file: string, bytes: Uint8Array | null): OpenAnswer;
   /** Best solution near a redshift the reviewer chose; null when the spectrum is not open. */
@@ -89,12 +91,16 @@ export function createFitWorkerApi(cacheEntries = SPECTRUM_CACHE_ENTRIES): FitWo
       const result = fitBytes(bytes, file, { workspace });
       return transfer(result, fitResultBuffers(result));
     },
+    fitOrSplit(bytes, file) {
+      const work = fitOrSplit(bytes, file, { workspace });
+      return work.kind === 'fitted' ? transfer(work, fitResultBuffers(work.result)) : work;
+    },
     openSpectrum(key, file, bytes) {
       let spectrum = cache.get(key);
       if (!spectrum) {
         if (!bytes) return { kind: 'need-bytes' };
         try {
-          spectrum = readSpectrum(bytes, file);
+          spectrum = readSpectrumById(bytes, file);
         } catch (e) {
           const message = e instanceof SpectrumReadError ? e.message : `${file}: internal reader error: ${(e as Error)?.message ?? e}`;
           return { kind: 'read-error', message };

@@ -9,11 +9,15 @@
  */
 import type { FitResult } from '../core/types';
 import { failedResult } from '../core/failedResult';
+import type { FileWork } from '../core/pipeline';
 import { TaskPool, type PoolEndpoint, type TaskOutcome } from '../core/pool/taskPool';
 
 /** The part of a fit worker the pool uses. */
 export interface PoolWorker {
+  /** Fit the spectrum `file` names: a file's name, or `file#n` for one spectrum of a multi-object file. */
   fitFile(bytes: Uint8Array, file: string): Promise<FitResult>;
+  /** First look at a file: its fit, or the ids of the spectra a multi-object file holds. Without it every file is one spectrum. */
+  fitOrSplit?(bytes: Uint8Array, file: string): Promise<FileWork>;
   terminate(): void;
 }
 
@@ -22,13 +26,15 @@ export type PoolWorkerFactory = () => PoolWorker;
 export interface FitJob {
   /** Stable file key (see fileKey). */
   key: string;
-  /** File name as the user gave it. */
+  /** File name as the user gave it; for one spectrum of a multi-object file its id `file#n`. */
   file: string;
+  /** A file not yet looked at: a multi-object file answers 'split' with its spectra's ids instead of a fit. */
+  firstLook?: boolean;
   /** Bytes are fetched only when a worker is free, so a queued batch holds no file in memory. */
   loadBytes: () => Promise<Uint8Array>;
 }
 
-export type PoolOutcome = { kind: 'result'; result: FitResult } | { kind: 'cancelled' };
+export type PoolOutcome = { kind: 'result'; result: FitResult } | { kind: 'split'; ids: string[] } | { kind: 'cancelled' };
 
 export interface PoolOptions {
   /** Number of workers, >= 1. */
@@ -53,20 +59,25 @@ export function defaultPoolSize(hardwareConcurrency: number | undefined): number
 }
 
 /** A TaskPool endpoint over one fit worker. */
-function fitEndpoint(worker: PoolWorker): PoolEndpoint<FitInput, FitResult> {
-  return { run: ({ bytes, file }) => worker.fitFile(bytes, file), terminate: () => worker.terminate() };
+function fitEndpoint(worker: PoolWorker): PoolEndpoint<FitInput, FileWork> {
+  return {
+    run: ({ bytes, file, firstLook }) =>
+      firstLook && worker.fitOrSplit ? worker.fitOrSplit(bytes, file) : worker.fitFile(bytes, file).then((result): FileWork => ({ kind: 'fitted', result })),
+    terminate: () => worker.terminate(),
+  };
 }
 
 interface FitInput {
   bytes: Uint8Array;
   file: string;
+  firstLook: boolean;
 }
 
 /** What a task's outcome means for one file. */
-function outcomeOf(o: TaskOutcome<FitResult>, file: string): PoolOutcome {
+function outcomeOf(o: TaskOutcome<FileWork>, file: string): PoolOutcome {
   switch (o.kind) {
     case 'done':
-      return { kind: 'result', result: o.output };
+      return o.output.kind === 'split' ? { kind: 'split', ids: o.output.ids } : { kind: 'result', result: o.output.result };
     case 'timeout':
       return { kind: 'result', result: failedResult(file, `${file}: fit stopped after the time limit of ${(o.limitMs / 1000).toFixed(1)} s`, 'timeout') };
     case 'crash':
@@ -80,10 +91,10 @@ function outcomeOf(o: TaskOutcome<FitResult>, file: string): PoolOutcome {
 
 /** The browser's adapter over the shared TaskPool core (src/core/pool): Web Workers, AbortSignal, FitResult. */
 export class FitPool {
-  private readonly core: TaskPool<FitInput, FitResult>;
+  private readonly core: TaskPool<FitInput, FileWork>;
 
   constructor(options: PoolOptions) {
-    this.core = new TaskPool<FitInput, FitResult>({
+    this.core = new TaskPool<FitInput, FileWork>({
       size: options.size,
       timeLimitMs: options.timeLimitMs,
       createEndpoint: () => fitEndpoint(options.createWorker()),
@@ -109,10 +120,10 @@ export class FitPool {
     return this.core.running;
   }
 
-  /** Queue one file; resolves with its FitResult (never rejects) or 'cancelled'. */
+  /** Queue one file or spectrum; resolves with its FitResult (never rejects), its spectra's ids (a first look at a multi-object file) or 'cancelled'. */
   fit(job: FitJob, signal?: AbortSignal): Promise<PoolOutcome> {
     if (signal?.aborted) return Promise.resolve({ kind: 'cancelled' });
-    const task = this.core.submit(() => job.loadBytes().then((bytes) => ({ bytes, file: job.file })));
+    const task = this.core.submit(() => job.loadBytes().then((bytes) => ({ bytes, file: job.file, firstLook: job.firstLook === true })));
     if (signal) {
       const onAbort = () => task.cancel();
       signal.addEventListener('abort', onAbort, { once: true });

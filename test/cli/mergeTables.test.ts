@@ -49,3 +49,30 @@ describe('mergeShardTables(tables)', () => {
     expect(() => mergeShardTables([{ name: 's1.csv', text: shard(1, 2) }, { name: 's2.csv', text: cut }])).toThrow(/^s2\.csv: line \d+: quoted cell is never closed/);
   });
 });
+
+describe('mergeShardTables with multi-object files (rows file#n)', () => {
+  // Inputs: a plate of 12 spectra between two files of one; the fitter writes a plate's rows in row order.
+  const inputs = ['night3/a.fits', 'night3/plate.fits', 'night3/z.fits'];
+  const ids = ['night3/a.fits', ...Array.from({ length: 12 }, (_, i) => `night3/plate.fits#${i + 1}`), 'night3/z.fits'];
+  const byId = new Map(ids.map((file) => [file, automaticRow(okResult({ file }), DEFAULT_COSMOLOGY)]));
+  /** A shard's table: the rows of its inputs (a plate's rows stay in its input's shard). */
+  const table = (index: number, count: number, mine = (id: string) => inputs.findIndex((f) => id === f || id.startsWith(`${f}#`)) % count === index - 1) => {
+    const w = catalogueTableWriter('csv', { ...META, extra: { shard: `${index}/${count}`, inputs_total: String(inputs.length), input_list: listFingerprint(inputs) } });
+    return w.begin() + ids.filter(mine).map((id) => w.row(byId.get(id)!)).join('') + w.end();
+  };
+
+  it('counts inputs, not rows, and orders a plate by its row number (#10 after #9), as the unsharded run does', () => {
+    const merged = parseCatalogueCsv(mergeShardTables([{ name: 's2.csv', text: table(2, 2) }, { name: 's1.csv', text: table(1, 2) }]));
+    expect(merged.rows.map((r) => r.file)).toEqual(ids);
+    expect(merged.rows).toEqual(parseCatalogueCsv(table(1, 1)).rows);
+  });
+
+  it("refuses a plate whose rows are in two shards (tables of different runs), and a plate's row given twice", () => {
+    const odd = (id: string) => /#\d*[13579]$/.test(id);
+    const a = table(1, 2, (id) => id.endsWith('a.fits') || odd(id));
+    const b = table(2, 2, (id) => !id.endsWith('a.fits') && !odd(id));
+    expect(() => mergeShardTables([{ name: 's1.csv', text: a }, { name: 's2.csv', text: b }])).toThrow(/input night3\/plate\.fits has rows in s1\.csv and in s2\.csv/);
+    const twice = table(2, 2, () => true);
+    expect(() => mergeShardTables([{ name: 's1.csv', text: table(1, 2) }, { name: 's2.csv', text: twice }])).toThrow(/appears twice/);
+  });
+});

@@ -26,6 +26,7 @@ export class ScriptedFitter implements Fitter {
 export function fakeReview(over: Partial<ReviewApi> = {}): ReviewApi {
   return {
     fitFile: vi.fn(async (_b: Uint8Array, file: string) => makeResult(file)),
+    fitOrSplit: vi.fn(async (_b: Uint8Array, file: string) => ({ kind: 'fitted' as const, result: makeResult(file) })),
     openSpectrum: vi.fn(async (_key: string, file: string) => ({ kind: 'spectrum' as const, spectrum: makeSpectrum(file) })),
     refitNear: vi.fn(async (_key: string, z: number) => makeResult('refit', { z: z + 0.0001, zErr: 0.0002, class: 'galaxy' })),
     nameFeature: vi.fn(async () => ({ feature: null, suggestions: [] })),

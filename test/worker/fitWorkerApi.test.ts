@@ -179,3 +179,19 @@ describe('fit worker API', () => {
     for (const s of ans!.suggestions) expect(s.z).toBeCloseTo(ans!.feature!.centreA / s.restA - 1, 6);
   });
 });
+
+describe('fit worker API and multi-object files (the invented demo plate, src/core/sim/samplePlate.ts)', () => {
+  it('a first look splits the plate; openSpectrum of a row id shows that row (readSpectra gives the same spectrum)', async () => {
+    const { buildSamplePlate, PLATE_NAME } = await import('../../src/core/sim/samplePlate');
+    const { SAMPLE_SEED } = await import('../../src/core/sim/sampleSet');
+    const { readSpectra } = await import('../../src/core/io/readSpectra');
+    const { file } = buildSamplePlate(SAMPLE_SEED);
+    const api = createFitWorkerApi(2);
+    const work = api.fitOrSplit(file.bytes.slice(), PLATE_NAME);
+    expect(work.kind).toBe('split');
+    const id = work.kind === 'split' ? work.ids[3] : '';
+    const answer = api.openSpectrum('k#4', id, file.bytes.slice());
+    const expected = readSpectra(file.bytes, PLATE_NAME).find((s) => s.file === id)!;
+    expect(answer.kind === 'spectrum' && answer.spectrum).toEqual(expected);
+  });
+});

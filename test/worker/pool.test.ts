@@ -188,3 +188,37 @@ describe('FitPool', () => {
     expect(defaultPoolSize(undefined)).toBe(2);
   });
 });
+
+describe('FitPool and multi-object files', () => {
+  /** A worker that splits any file on a first look and fits any id. */
+  class SplittingWorker implements PoolWorker {
+    looks: string[] = [];
+    fits: string[] = [];
+    async fitFile(_bytes: Uint8Array, file: string): Promise<FitResult> {
+      this.fits.push(file);
+      return okResult(file);
+    }
+    async fitOrSplit(_bytes: Uint8Array, file: string) {
+      this.looks.push(file);
+      return { kind: 'split' as const, ids: [`${file}#1`, `${file}#3`] };
+    }
+    terminate(): void {}
+  }
+
+  it('a first look answers with the spectra ids; a spectrum job is a plain fit of its id', async () => {
+    const worker = new SplittingWorker();
+    const pool = new FitPool({ size: 1, createWorker: () => worker, timeLimitMs: 1000 });
+    expect(await pool.fit({ ...job('plate.fits'), firstLook: true })).toEqual({ kind: 'split', ids: ['plate.fits#1', 'plate.fits#3'] });
+    expect(await pool.fit(job('plate.fits#3'))).toEqual({ kind: 'result', result: okResult('plate.fits#3') });
+    expect(worker.looks).toEqual(['plate.fits']);
+    expect(worker.fits).toEqual(['plate.fits#3']);
+  });
+
+  it('a worker that cannot split (no fitOrSplit) fits the file as one spectrum', async () => {
+    const pool = new FitPool({ size: 1, createWorker: () => new FakeWorker(), timeLimitMs: 1000 });
+    const outcome = pool.fit({ ...job('a.csv'), firstLook: true });
+    await flush();
+    FakeWorker.made[0].calls[0].resolve(okResult('a.csv'));
+    expect(await outcome).toEqual({ kind: 'result', result: okResult('a.csv') });
+  });
+});

@@ -20,6 +20,13 @@ export interface EntryRecord {
   addedAt: string;
   /** False for entries imported from a session file without their bytes. */
   hasBytes: boolean;
+  /**
+   * One spectrum of a multi-object file: the key of the file's entry, which
+   * holds the bytes (stored once for all its spectra). Absent for a file.
+   */
+  bytesKey?: string;
+  /** Set on a multi-object file once split: how many spectra it gave (each an entry of its own; the file is no row). */
+  spectra?: number;
 }
 
 interface SessionSchema extends DBSchema {
@@ -103,6 +110,24 @@ export class SessionDb {
       const entry = await tx.objectStore('entries').get(key);
       if (entry) void tx.objectStore('entries').put({ ...entry, hasBytes: true }, key);
       void tx.objectStore('bytes').put(data, key);
+      await tx.done;
+    });
+  }
+
+  /**
+   * A multi-object file becomes its spectra, in one transaction: the spectra's
+   * entries are stored (an entry already there keeps its result and decision),
+   * the file's entry says how many it gave, and whatever was stored for the
+   * file as one spectrum (a failed result, a decision) is dropped.
+   */
+  async splitFile(fileKey: string, spectra: EntryRecord[]): Promise<void> {
+    await this.guard('saving the spectra of a file', async () => {
+      const tx = this.db.transaction(['entries', 'results', 'summaries', 'decisions'], 'readwrite');
+      const entries = tx.objectStore('entries');
+      const file = await entries.get(fileKey);
+      if (file) void entries.put({ ...file, spectra: spectra.length }, fileKey);
+      for (const e of spectra) void entries.put(e, e.key);
+      for (const st of ['results', 'summaries', 'decisions'] as const) void tx.objectStore(st).delete(fileKey);
       await tx.done;
     });
   }

@@ -1,5 +1,6 @@
 /**
- * The page's session: the batch (one row per file), fitting progress, review
+ * The page's session: the batch (one row per spectrum: a file, or one
+ * spectrum of a multi-object file, see spectrumRows.ts), fitting progress, review
  * decisions and settings. IndexedDB is the truth: every change is written
  * there first and then shown. Components read it through useSession
  * (useSyncExternalStore); the worker pool and the database are injected, so
@@ -15,13 +16,16 @@ import { fileKey } from '../persist/fileKey';
 import { encodeSession, parseSession, SESSION_FORMAT, SESSION_VERSION, type SessionFile } from '../persist/sessionFile';
 import { planImport, type ImportPlan } from '../persist/planImport';
 import { SOFTWARE_NAME_VERSION } from '../version';
+import { isSpectrumKey, spectrumEntries } from './spectrumRows';
 
 export type RowStatus = 'waiting' | 'fitting' | 'ok' | 'failed' | 'timeout' | 'cancelled';
 
-/** One file of the batch as the list shows it. */
+/** One spectrum of the batch as the list shows it: a file, or one spectrum (`file#n`) of a multi-object file. */
 export interface Row {
   key: string;
   file: string;
+  /** For one spectrum of a multi-object file: the key its file's bytes are stored under. */
+  bytesKey?: string;
   order: number;
   hasBytes: boolean;
   status: RowStatus;
@@ -103,6 +107,8 @@ export class Session {
   private nextOrder = 0;
   private view: SavedView | null = null;
   private draft: StagedDraft | null = null;
+  /** Multi-object files already split into their spectra, by file key: they hold the bytes but are no row. */
+  private splitFiles = new Map<string, EntryRecord>();
 
   constructor(
     readonly db: SessionDb,
@@ -183,11 +189,16 @@ export class Session {
     if (cosmology && isValidCosmology(cosmology)) this.cosmology = cosmology;
     const unfitted: string[] = [];
     for (const e of loaded.entries) {
+      if (e.spectra !== undefined) {
+        this.splitFiles.set(e.key, e);
+        this.nextOrder = Math.max(this.nextOrder, Math.floor(e.order) + 1);
+        continue;
+      }
       const summary = loaded.summaries.get(e.key);
       const decision = loaded.decisions.get(e.key);
       const status: RowStatus = summary ? statusOf(summary) : e.hasBytes ? 'waiting' : 'cancelled';
-      this.setRow({ key: e.key, file: e.file, order: e.order, hasBytes: e.hasBytes, status, summary, decision });
-      this.nextOrder = Math.max(this.nextOrder, e.order + 1);
+      this.setRow({ key: e.key, file: e.file, order: e.order, hasBytes: e.hasBytes, status, summary, decision, ...(e.bytesKey ? { bytesKey: e.bytesKey } : {}) });
+      this.nextOrder = Math.max(this.nextOrder, Math.floor(e.order) + 1);
       if (!summary && e.hasBytes) unfitted.push(e.key);
     }
     this.restored = true;
@@ -218,6 +229,10 @@ export class Session {
       keys.push(key);
       if (seen.has(key)) continue;
       seen.add(key);
+      if (this.splitFiles.has(key)) {
+        duplicates.push(f.path); // a multi-object file whose spectra are in the batch already
+        continue;
+      }
       const existing = this.rowsByKey.get(key);
       if (existing) {
         if (existing.hasBytes) duplicates.push(f.path);
@@ -266,8 +281,9 @@ export class Session {
         const job: FitJob = {
           key,
           file: row.file,
+          firstLook: !isSpectrumKey(key),
           loadBytes: async () => {
-            const bytes = await this.db.getBytes(key);
+            const bytes = await this.db.getBytes(row.bytesKey ?? key);
             if (!bytes) throw new Error('the file is no longer stored');
             const r = this.rowsByKey.get(key);
             if (r) this.setRow({ ...r, status: 'fitting' });
@@ -276,7 +292,7 @@ export class Session {
           },
         };
         const outcome = await this.fitter.fit(job, signal);
-        await this.takeOutcome(key, outcome);
+        await this.takeOutcome(key, outcome, signal);
       }),
     );
     if (signal === this.abort?.signal && this.progress.waiting === 0) {
@@ -285,13 +301,19 @@ export class Session {
     }
   }
 
-  private async takeOutcome(key: string, outcome: PoolOutcome): Promise<void> {
+  private async takeOutcome(key: string, outcome: PoolOutcome, signal: AbortSignal): Promise<void> {
     const row = this.rowsByKey.get(key);
     const p = this.progress;
     if (outcome.kind === 'cancelled') {
       this.progress = { ...p, waiting: p.waiting - 1, cancelled: p.cancelled + 1 };
       if (row) this.setRow({ ...row, status: 'cancelled' });
       this.notifySoon();
+      return;
+    }
+    if (outcome.kind === 'split') {
+      // The look at the file is no spectrum: its spectra are counted as they are queued.
+      this.progress = { ...p, waiting: p.waiting - 1, total: p.total - 1 };
+      if (row) await this.splitRow(row, outcome.ids, signal);
       return;
     }
     const result = outcome.result;
@@ -306,6 +328,44 @@ export class Session {
     const now = this.rowsByKey.get(key);
     if (now) this.setRow({ ...now, status: statusOf(summary), summary });
     this.notifySoon();
+  }
+
+  /**
+   * A multi-object file becomes one row per spectrum, in its place (stored in
+   * one step first), and each spectrum is fitted as its own job. A spectrum
+   * already in the batch (the file dropped again after an import) keeps its
+   * result and decision and gets the bytes. After a cancel the new rows wait.
+   */
+  private async splitRow(file: Row, ids: readonly string[], signal: AbortSignal): Promise<void> {
+    const fileEntry: EntryRecord = { key: file.key, file: file.file, order: file.order, sizeBytes: 0, addedAt: new Date().toISOString(), hasBytes: file.hasBytes };
+    const entries = spectrumEntries(fileEntry, ids, fileEntry.addedAt).map((e) => {
+      const had = this.rowsByKey.get(e.key);
+      return had ? { ...e, order: had.order } : e;
+    });
+    try {
+      await this.db.splitFile(file.key, entries);
+    } catch {
+      // Shown all the same; the banner says the batch is not stored.
+    }
+    this.splitFiles.set(file.key, { ...fileEntry, spectra: entries.length });
+    const at = this.order.indexOf(file.key);
+    const fresh = entries.filter((e) => !this.rowsByKey.get(e.key)?.summary).map((e) => e.key);
+    const newKeys = entries.map((e) => e.key).filter((k) => !this.rowsByKey.has(k));
+    for (const e of entries) {
+      const had = this.rowsByKey.get(e.key);
+      const status: RowStatus = had?.summary ? had.status : signal.aborted ? 'cancelled' : 'waiting';
+      this.rowsByKey.set(e.key, { ...had, key: e.key, file: e.file, order: e.order, hasBytes: true, bytesKey: file.key, status });
+    }
+    this.rowsByKey.delete(file.key);
+    this.order.splice(at < 0 ? this.order.length : at, at < 0 ? 0 : 1, ...newKeys);
+    if (this.draft?.key === file.key) this.draft = null;
+    if (signal.aborted) {
+      this.progress = { ...this.progress, cancelled: this.progress.cancelled + fresh.length };
+      this.notifySoon();
+      return;
+    }
+    this.notifySoon();
+    if (fresh.length) await this.fitKeys(fresh);
   }
 
   /** Stop the run: queued files stay in the list as not fitted. */
@@ -329,8 +389,9 @@ export class Session {
     return this.db.getResult(key);
   }
 
+  /** The bytes of the file a row comes from (for a spectrum of a multi-object file, the whole file). */
   getBytes(key: string): Promise<Uint8Array | undefined> {
-    return this.db.getBytes(key);
+    return this.db.getBytes(this.rowsByKey.get(key)?.bytesKey ?? key);
   }
 
   // ---- decisions and settings ---------------------------------------
@@ -441,9 +502,13 @@ export class Session {
   async removeFiles(keys: readonly string[]): Promise<void> {
     const gone = new Set(keys.filter((k) => this.rowsByKey.has(k)));
     if (!gone.size) return;
+    // A multi-object file whose last spectrum goes is forgotten with it (its entry holds the bytes).
+    const files = new Set([...gone].map((k) => this.rowsByKey.get(k)!.bytesKey).filter((k): k is string => k !== undefined));
+    for (const r of this.rowsByKey.values()) if (r.bytesKey && !gone.has(r.key)) files.delete(r.bytesKey);
     try {
-      await this.db.removeFiles([...gone]);
+      await this.db.removeFiles([...gone, ...files]);
     } finally {
+      for (const k of files) this.splitFiles.delete(k);
       for (const k of gone) this.rowsByKey.delete(k);
       this.order = this.order.filter((k) => !gone.has(k));
       if (this.draft && gone.has(this.draft.key)) this.draft = null;
@@ -461,6 +526,7 @@ export class Session {
     this.abort?.abort();
     await this.db.clearBatch();
     this.rowsByKey.clear();
+    this.splitFiles.clear();
     this.order = [];
     this.nextOrder = 0;
     this.progress = EMPTY_PROGRESS;
@@ -491,7 +557,8 @@ export class Session {
       const result = (await this.db.getResult(key)) ?? null;
       const e: SessionFile['entries'][number] = { key, file: row.file, order: row.order, result, decision: row.decision ?? null };
       if (includeSpectra && row.hasBytes) {
-        const bytes = await this.db.getBytes(key);
+        // A spectrum of a multi-object file carries its whole file (the reader picks its row by the #n of its name).
+        const bytes = await this.getBytes(key);
         if (bytes) e.bytes = bytes;
       }
       entries.push(e);

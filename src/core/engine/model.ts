@@ -31,94 +31,120 @@ export function evaluateAt(data: WeightedData, vectors: Float64Array[], kStart: 
   const K = vectors.length;
   const P = data.q.length;
   const solver = makeShiftSolver(K, P);
-  const { tt, tf, tq } = solver;
-  const nT = vectors[0].length;
-  const rows = transposed(vectors);
-  const n = data.w.length;
-  const { w: W, wf: WF, wq: WQ } = data;
-  // pixels where the vectors are defined: t = d0 + i - shift - kStart in [0, nT)
-  const iFrom = Math.max(0, kStart + shift - data.d0);
-  const iTo = Math.min(n, kStart + shift - data.d0 + nT);
-  for (let i = iFrom; i < iTo; i++) {
-    const w = W[i];
-    if (!(w > 0)) continue;
-    const base = (data.d0 + i - shift - kStart) * K;
-    const wfi = WF[i];
-    for (let j = 0; j < K; j++) {
-      const r = rows[base + j];
-      if (r === 0) continue;
-      const wr = w * r;
-      const o = j * K;
-      for (let l = 0; l <= j; l++) tt[o + l] += wr * rows[base + l];
-      tf[j] += r * wfi;
-      for (let a = 0; a < P; a++) tq[j * P + a] += r * WQ[a][i];
-    }
+  const cols = vectorColumns(data, vectors, kStart, shift);
+  modelSums(data.w, data.flux, cols, solver.tt, solver.tf);
+  // TQ_ja = sum w t_j q_a over t_j's range
+  for (let j = 0; j < K; j++) {
+    const c = cols[j];
+    for (let a = 0; a < P; a++) solver.tq[j * P + a] = dotRange(c.src, c.off, data.wq[a], c.lo, c.hi);
   }
   const chi2 = solveShift(solver, data.g, data.F, nonNegative);
   const amplitudes = Float64Array.from(solver.a);
   // polynomial coefficients: the part of g the templates do not explain (q orthonormal)
   const polyCoeffs = Float64Array.from(data.g, (ga, a) => {
     let s = ga;
-    for (let j = 0; j < K; j++) s -= amplitudes[j] * tq[j * P + a];
+    for (let j = 0; j < K; j++) s -= amplitudes[j] * solver.tq[j * P + a];
     return s;
   });
   return { shift, chi2, amplitudes, polyCoeffs, nParams: solver.used + P };
-}
-
-/**
- * The vectors as one row-major matrix (template pixel t, vector j at
- * t * K + j), so a pixel's row is contiguous in memory. Kept per vectors
- * array (a WeakMap: it goes with the array, nothing to evict by hand).
- */
-const transposedOf = new WeakMap<Float64Array[], Float64Array>();
-function transposed(vectors: Float64Array[]): Float64Array {
-  if (vectors.length === 1) return vectors[0];
-  let m = transposedOf.get(vectors);
-  if (!m) {
-    const K = vectors.length;
-    const nT = vectors[0].length;
-    m = new Float64Array(nT * K);
-    for (let j = 0; j < K; j++) {
-      const v = vectors[j];
-      for (let t = 0; t < nT; t++) m[t * K + j] = v[t];
-    }
-    transposedOf.set(vectors, m);
-  }
-  return m;
 }
 
 /** evaluateAt with the polynomial gated: it becomes P ordinary columns q_a(i) [rest pixel >= polyFromK], solved together with the vectors. */
 function evaluateGatedAt(data: WeightedData, vectors: Float64Array[], kStart: number, nonNegative: readonly boolean[], shift: number, polyFromK: number): ModelFit {
   const K = vectors.length;
   const P = data.q.length;
-  const M = K + P;
-  const solver = makeShiftSolver(M, 0);
-  const { tt, tf } = solver;
-  const nT = vectors[0].length;
-  const rows = transposed(vectors);
-  const row = new Float64Array(M);
   const n = data.w.length;
+  const solver = makeShiftSolver(K + P, 0);
+  const cols = vectorColumns(data, vectors, kStart, shift);
+  const gateFrom = Math.max(0, Math.min(n, polyFromK - data.d0 + shift));
+  for (let a = 0; a < P; a++) cols.push({ src: data.q[a], off: 0, lo: gateFrom, hi: n });
+  modelSums(data.w, data.flux, cols, solver.tt, solver.tf);
+  // data.w may carry extra variance (the forest) that data.F does not know of
   let F = 0;
-  for (let i = 0; i < n; i++) {
-    const w = data.w[i];
-    if (!(w > 0)) continue;
-    const f = data.flux[i];
-    F += w * f * f;
-    const t = data.d0 + i - shift - kStart;
-    const inT = t >= 0 && t < nT;
-    for (let j = 0; j < K; j++) row[j] = inT ? rows[t * K + j] : 0;
-    const on = data.d0 + i - shift >= polyFromK ? 1 : 0;
-    for (let a = 0; a < P; a++) row[K + a] = on * data.q[a][i];
-    for (let j = 0; j < M; j++) {
-      const wr = w * row[j];
-      if (wr === 0) continue;
-      for (let l = 0; l <= j; l++) tt[j * M + l] += wr * row[l];
-      tf[j] += wr * f;
-    }
-  }
+  for (let i = 0; i < n; i++) F += data.w[i] * data.flux[i] * data.flux[i];
   const nonNeg = [...nonNegative, ...new Array(P).fill(false)];
   const chi2 = solveShift(solver, new Float64Array(0), F, nonNeg);
   return { shift, chi2, amplitudes: solver.a.slice(0, K), polyCoeffs: solver.a.slice(K), nParams: solver.used, polyFromK };
+}
+
+/**
+ * One design-matrix column: its value at data pixel i is src[i + off], zero
+ * outside pixels [lo, hi). Limiting every sum to the columns' overlap is the
+ * speed-up: most vectors (line groups, the forest, the Lyman-continuum leak)
+ * are non-zero over a small part of the spectrum.
+ */
+interface Column {
+  src: Float64Array;
+  off: number;
+  lo: number;
+  hi: number;
+}
+
+/** The vectors as columns at this shift, each cut to its non-zero span and to the data. */
+function vectorColumns(data: WeightedData, vectors: Float64Array[], kStart: number, shift: number): Column[] {
+  const off = data.d0 - shift - kStart;
+  const n = data.w.length;
+  return vectors.map((v) => {
+    const [first, last] = nonZeroSpan(v);
+    return { src: v, off, lo: Math.max(0, first - off), hi: Math.min(n, last + 1 - off) };
+  });
+}
+
+/**
+ * Normal equations of the columns under weights w: tt (row-major, lower
+ * triangle) = sum w c_j c_l and tf = sum w f c_j, each over the columns'
+ * overlap only. Fast kernel: w c_l is formed once per column, so every sum
+ * is a plain dot product.
+ */
+function modelSums(w: Float64Array, flux: Float64Array, cols: Column[], tt: Float64Array, tf: Float64Array): void {
+  const M = cols.length;
+  // w c_l for every column, packed in one array (column l from start[l])
+  const start = new Int32Array(M + 1);
+  for (let l = 0; l < M; l++) start[l + 1] = start[l] + Math.max(0, cols[l].hi - cols[l].lo);
+  const wc = new Float64Array(start[M]);
+  for (let l = 0; l < M; l++) {
+    const c = cols[l];
+    const o = start[l] - c.lo;
+    for (let i = c.lo; i < c.hi; i++) wc[i + o] = w[i] * c.src[i + c.off];
+  }
+  for (let j = 0; j < M; j++) {
+    const cj = cols[j];
+    tf[j] = dotRange(wc, start[j] - cj.lo, flux, cj.lo, cj.hi);
+    for (let l = 0; l <= j; l++) {
+      const cl = cols[l];
+      const lo = Math.max(cj.lo, cl.lo);
+      const hi = Math.min(cj.hi, cl.hi);
+      // sum c_j (w c_l) over the overlap, with c_j read at its offset
+      tt[j * M + l] = dotShifted(cj.src, cj.off, wc, start[l] - cl.lo, lo, hi);
+    }
+  }
+}
+
+/** sum over i in [lo, hi) of x[i + dx] * y[i + dy]. */
+function dotShifted(x: Float64Array, dx: number, y: Float64Array, dy: number, lo: number, hi: number): number {
+  let s = 0;
+  for (let i = lo; i < hi; i++) s += x[i + dx] * y[i + dy];
+  return s;
+}
+
+/** sum over data pixels [lo, hi) of src[i + off] * y[i]. */
+function dotRange(src: Float64Array, off: number, y: Float64Array, lo: number, hi: number): number {
+  return dotShifted(src, off, y, 0, lo, hi);
+}
+
+/** First and last index of a non-zero element ([0, -1] when none); kept per array (a WeakMap: it goes with the array). */
+const spanOf = new WeakMap<Float64Array, [number, number]>();
+function nonZeroSpan(v: Float64Array): [number, number] {
+  let s = spanOf.get(v);
+  if (!s) {
+    let first = 0;
+    while (first < v.length && v[first] === 0) first++;
+    let last = v.length - 1;
+    while (last >= first && v[last] === 0) last--;
+    s = first > last ? [0, -1] : [first, last];
+    spanOf.set(v, s);
+  }
+  return s;
 }
 
 /** The model on the data's pixels (NaN where no template covers). */

@@ -52,11 +52,11 @@ function fitsDate(iso: string): string | null {
 
 /**
  * The catalogue as FITS file bytes: primary HDU + BINTABLE extension named
- * CATALOGUE, and, when `lines` (line-table rows, lines.ts) is given, a second
+ * CATALOGUE (or `extname`: a team review's verdict table is VERDICTS), and, when `lines` (line-table rows, lines.ts) is given, a second
  * BINTABLE named LINES with one row per spectrum and line, tied to the
  * catalogue by its `file` column.
  */
-export function catalogueFits(rows: readonly TableRow[], columns: readonly ColumnDef[], meta: ExportMeta, lines?: readonly TableRow[]): Uint8Array {
+export function catalogueFits(rows: readonly TableRow[], columns: readonly ColumnDef[], meta: ExportMeta, lines?: readonly TableRow[], extname = 'CATALOGUE'): Uint8Array {
   const cosmo = cosmologySummary(meta.cosmology);
   const cards: FitsCardInput[] = [
     ['CREATOR', fitsAscii(oneLine(`${meta.software} ${meta.version}`)), 'software that wrote this file'],
@@ -75,7 +75,7 @@ export function catalogueFits(rows: readonly TableRow[], columns: readonly Colum
   const table = writeBinTableHdu({
     columns: columns.map((c) => column(c, rows)),
     nRows: rows.length,
-    extname: 'CATALOGUE',
+    extname,
     cards,
   });
   const hdus = [writeEmptyPrimaryHdu(), table];

@@ -68,3 +68,24 @@ export function countedBySpectrum(merged: MergedBatch): Map<string, MergedVerdic
   for (const list of out.values()) list.sort((a, b) => (a.reviewer < b.reviewer ? -1 : a.reviewer > b.reviewer ? 1 : 0));
   return out;
 }
+
+/**
+ * Merge the sets one by one, refusing each that does not fit the ones taken
+ * before (another batch, changed contents, given twice) with its message,
+ * so one wrong file does not stop the rest.
+ */
+export function mergeWhatFits(sets: readonly VerdictSet[]): { merged: MergedBatch | null; refused: { source: string; message: string }[] } {
+  const taken: VerdictSet[] = [];
+  const refused: { source: string; message: string }[] = [];
+  let merged: MergedBatch | null = null;
+  for (const set of sets) {
+    try {
+      merged = mergeVerdictSets([...taken, set]);
+      taken.push(set);
+    } catch (e) {
+      if (!(e instanceof TeamFileError)) throw e;
+      refused.push({ source: set.source, message: e.message });
+    }
+  }
+  return { merged, refused };
+}

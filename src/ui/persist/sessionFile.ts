@@ -7,6 +7,7 @@
 import type { CosmologyParams, FitResult, ReviewDecision } from '../../core/types';
 import { bytesToBase64, base64ToBytes } from './base64';
 import { decisionProblems, fitResultProblems, asDecision, asFitResult } from './validateRecords';
+import { teamTagProblems, type TeamTag } from '../../core/team/teamTag';
 
 export const SESSION_FORMAT = 'shiftmark-session';
 /** Version written; versions read: 1 (curves as number lists) and 2 (curves thinned, as base64 float32). */
@@ -36,6 +37,8 @@ export interface SessionFile {
   reviewer: string;
   cosmology: CosmologyParams;
   entries: SessionFileEntry[];
+  /** Present in a review packet and in every session saved from one (src/core/team/teamTag.ts). */
+  team?: TeamTag;
 }
 
 type Tagged = { $f64: number[] } | { $f32: string } | { $num: 'NaN' | 'Infinity' | '-Infinity' } | { $b64: string };
@@ -145,6 +148,7 @@ export function parseSession(text: string): ParsedSession {
   const c = r.cosmology as Record<string, unknown> | undefined;
   if (!c || !['h0', 'omegaM', 'omegaK', 'omegaR'].every((k) => typeof c[k] === 'number' && Number.isFinite(c[k] as number)))
     problems.push('cosmology is malformed');
+  if (r.team !== undefined) problems.push(...teamTagProblems(r.team));
   if (!Array.isArray(r.entries)) problems.push('entries is not a list');
   else {
     const seen = new Set<string>();

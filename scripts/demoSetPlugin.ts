@@ -7,7 +7,7 @@ import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative, sep } from 'node:path';
 import type { Plugin } from 'vite';
 
-const NOT_SPECTRA = /(^\.|\.md$|\.json$|^truth\.csv$)/i;
+const NOT_SPECTRA = /(^\.|\.md$|\.json$|^truth(-[\w.-]+)?\.csv$)/i;
 
 export function listDemoFiles(root: string): string[] {
   const out: string[] = [];

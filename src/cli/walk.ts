@@ -2,7 +2,7 @@ import { readdirSync, statSync } from 'node:fs';
 import { basename, join, relative, resolve, sep } from 'node:path';
 
 /** Names never taken for spectra when walking a folder (documentation and truth tables). */
-const SKIP_IN_FOLDERS = /(^\.|\.md$|\.json$|^truth\.csv$)/i;
+const SKIP_IN_FOLDERS = /(^\.|\.md$|\.json$|^truth(-[\w.-]+)?\.csv$)/i;
 
 /** An input the fitter cannot start with: a path that does not exist, or inputs holding no file at all. */
 export class InputError extends Error {
@@ -62,7 +62,7 @@ export function expandInputFiles(inputs: readonly string[]): InputFile[] {
     if (!st) throw new InputError(`${input}: no such file or folder`);
     if (st.isDirectory()) {
       // The folder's own name, also for '.' or a path ending in '/'.
-      if (walk(input, input, basename(resolve(input))) === 0) throw new InputError(`${input}: the folder holds no spectrum files (hidden files, .md, .json and truth.csv are not read)`);
+      if (walk(input, input, basename(resolve(input))) === 0) throw new InputError(`${input}: the folder holds no spectrum files (hidden files, .md, .json and truth*.csv are not read)`);
     } else add(input, basename(input));
   }
   const files = [...byPath.values()];

@@ -11,7 +11,7 @@
  * fails alone.
  */
 import { SpectrumReadError, type FitResult, type Spectrum } from './types';
-import { openSpectraFile, noTargetsError, spectrumId, spectrumOfOpened, type OpenedFile } from './io/readSpectra';
+import { openSpectraFile, noTargetsError, rowOfId, spectrumId, spectrumOfOpened, type OpenedFile } from './io/readSpectra';
 import { fitSpectrum, type FitOptions } from './engine';
 import { failedResult } from './failedResult';
 
@@ -30,7 +30,12 @@ function fitOpened(opened: OpenedFile, id: string, options?: FitOptions): FitRes
   try {
     spectrum = spectrumOfOpened(opened, id);
   } catch (e) {
-    return readFailure(e, id);
+    const failed = readFailure(e, id);
+    // A bad row still has the object id and position its fibre table gives, so its row says which object failed.
+    const index = rowOfId(id)?.index;
+    const facts = opened.layout?.rows.find((r) => r.index === index)?.facts;
+    if (facts) failed.input.meta = Object.fromEntries(Object.entries(facts).filter(([, v]) => v !== undefined));
+    return failed;
   }
   try {
     return fitSpectrum(spectrum, options);

@@ -1,7 +1,8 @@
 /**
  * The headless fitter end to end: `npm run fit` on the demo set, checked
- * against its truth.csv; the rows equal the in-process core call the browser
- * worker makes; shards merge back into the unsharded table.
+ * against its truth.csv and the plate's truth-plate.csv; the rows equal the
+ * in-process core call the browser worker makes; shards merge back into the
+ * unsharded table.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import { execFileSync, spawnSync } from 'node:child_process';
@@ -14,6 +15,7 @@ import { tableColumns } from '../../src/core/io/fits/table';
 import { fitBytes } from '../../src/core/pipeline';
 import { DEFAULT_COSMOLOGY } from '../../src/core/cosmology';
 import { parseTruthCsv } from '../../src/core/sim';
+import { parsePlateTruthCsv, PLATE_DEAD_FIBRE, PLATE_NAME, PLATE_TRUTH_NAME } from '../../src/core/sim/samplePlate';
 import { mergeShardTables } from '../../src/cli/mergeTables';
 
 const ROOT = resolve(__dirname, '../..');
@@ -32,6 +34,9 @@ function run(args: string[]): { status: number | null; stderr: string } {
 }
 
 const truth = parseTruthCsv(readFileSync(join(ROOT, 'sample-spectra', 'truth.csv'), 'utf8'));
+const plateTruth = parsePlateTruthCsv(readFileSync(join(ROOT, 'sample-spectra', PLATE_TRUTH_NAME), 'utf8'));
+/** The plate's fibres that get a row: every one but sky and unused (the dead one fails alone). */
+const plateRows = plateTruth.filter((t) => t.expect !== 'dropped');
 let table: ReturnType<typeof parseCatalogueCsv>;
 let fullText: string;
 
@@ -41,9 +46,13 @@ beforeAll(() => {
 }, 180_000);
 
 describe('npm run fit on sample-spectra/', () => {
-  it('writes one row per input file and names the software, template set and cosmology', () => {
+  it('writes one row per spectrum (a file, or a fibre of the plate) and names the software, template set and cosmology', () => {
     const files = table.rows.map((r) => r.file.replace(/^sample-spectra\//, ''));
-    expect(new Set(files)).toEqual(new Set(truth.map((t) => t.file)));
+    expect(files).toHaveLength(truth.length + plateRows.length);
+    expect(new Set(files)).toEqual(new Set([...truth.map((t) => t.file), ...plateRows.map((t) => t.id)]));
+    // The plate's rows stand where the file sorts, in fibre order.
+    const first = files.indexOf(plateRows[0].id);
+    expect(files.slice(first, first + plateRows.length)).toEqual(plateRows.map((t) => t.id));
     expect(table.meta.software).toMatch(/^Shiftmark /);
     expect(table.meta.template_set).toBeTruthy();
     expect(table.meta.cosmology).toMatch(/H0 = 70/);
@@ -82,6 +91,33 @@ describe('npm run fit on sample-spectra/', () => {
       const row = table.rows.find((r) => r.file === path)!;
       expect(row).toEqual(expected);
     }
+    const plate = new Uint8Array(readFileSync(join(ROOT, 'sample-spectra', PLATE_NAME)));
+    for (const t of [plateRows[0], plateRows[plateRows.length - 1]]) {
+      const id = `sample-spectra/${t.id}`;
+      expect(table.rows.find((r) => r.file === id)).toEqual(automaticRow(fitBytes(plate, id), DEFAULT_COSMOLOGY));
+    }
+  });
+
+  it("gives each fibre of the plate its object id and position (truth-plate.csv), and the dead fibre a row of its own naming file and row", () => {
+    for (const t of plateRows) {
+      const row = table.rows.find((r) => r.file === `sample-spectra/${t.id}`)!;
+      expect(row.object_id).toBe(t.objectId);
+      expect(Number(row.ra_deg)).toBeCloseTo(t.raDeg, 6);
+      if (t.fibre === PLATE_DEAD_FIBRE) {
+        expect(t.expect).toBe('error');
+        expect(row.error).toMatch(new RegExp(`^sample-spectra/${PLATE_NAME.replace(/\./g, '\\.')}#${PLATE_DEAD_FIBRE} \\(HDU 0\\): no usable pixel`));
+      } else expect(row.error).toBe('');
+    }
+  });
+
+  it('recovers the true redshift of most plate fibres (truth-plate.csv; |dz|/(1+z) < 0.01)', () => {
+    const good = plateRows.filter((t) => t.expect === 'spectrum');
+    const right = good.filter((t) => {
+      const row = table.rows.find((r) => r.file === `sample-spectra/${t.id}`)!;
+      return Math.abs(Number(row.z) - t.z) / (1 + t.z) < 0.01;
+    }).length;
+    // Regression floor for this plate (internal, as for the demo files above: the toy simulator, S/N 2-30).
+    expect(right / good.length).toBeGreaterThanOrEqual(0.8);
   });
 
   it('shards 1/2 and 2/2 merge into exactly the unsharded rows', () => {
@@ -100,6 +136,17 @@ describe('npm run fit on sample-spectra/', () => {
     expect(r.status).toBe(2);
     expect(r.stderr).toContain(`error: ${missing}: no such file or folder`);
     expect(() => readFileSync(out)).toThrow(/ENOENT/); // no table was started
+  }, 60_000);
+
+  it('writes the table but ends with status 1 and says so when no file could be read (a folder of broken files)', () => {
+    const out = join(tmp, 'broken.csv');
+    const r = run(['sample-spectra/broken', '--out', out, '--quiet']);
+    const brokenCount = truth.filter((t) => t.layout === 'broken').length;
+    expect(r.status).toBe(1);
+    expect(r.stderr).toContain(`error: none of the ${brokenCount} spectra in ${brokenCount} files could be read and fitted; the error column of ${out} says why for each`);
+    const rows = parseCatalogueCsv(readFileSync(out, 'utf8')).rows;
+    expect(rows).toHaveLength(brokenCount);
+    for (const row of rows) expect(row.error).not.toBe('');
   }, 60_000);
 
   it('stops with status 2 naming the folder when the inputs hold no spectrum file', () => {
@@ -172,8 +219,10 @@ describe('npm run fit on sample-spectra/', () => {
   it('marks a file that runs past its time limit as failed, replaces the worker and finishes the batch', () => {
     // 0.05 s is far less than a worker needs to start, so every file runs out of time.
     const files = ['sample-spectra/mrx-0877.csv', 'sample-spectra/mrx-0886.fits', 'sample-spectra/mrx-0136.fits'];
-    const text = fit([...files, '--out', join(tmp, 'timeout.csv'), '--jobs', '1', '--time-limit', '0.05']);
-    const rows = parseCatalogueCsv(text).rows;
+    const out = join(tmp, 'timeout.csv');
+    // Every row failed, so the run ends with status 1 (a table of errors only is no catalogue); the table is complete.
+    expect(run([...files, '--out', out, '--jobs', '1', '--time-limit', '0.05', '--quiet']).status).toBe(1);
+    const rows = parseCatalogueCsv(readFileSync(out, 'utf8')).rows;
     expect(rows.map((r) => r.file)).toEqual(files.map((f) => basename(f)).sort());
     for (const r of rows) {
       expect(r.error).toMatch(/no result within 0\.05 s/);

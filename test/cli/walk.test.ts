@@ -21,6 +21,7 @@ function tree(): string {
   writeFileSync(join(root, 'night1', 'README.md'), 'notes');
   writeFileSync(join(root, 'night1', '.hidden'), 'x');
   writeFileSync(join(root, 'notes-only', 'truth.csv'), 'file,z');
+  writeFileSync(join(root, 'notes-only', 'truth-plate.csv'), 'id,z'); // a multi-object file's own truth table
   writeFileSync(join(root, 'single.txt'), 's');
   return root;
 }

@@ -45,6 +45,9 @@ describe('fitOrSplit(bytes, file) and fitBytes(bytes, id) on a multi-object file
     expect(result.status).toBe('failed');
     expect(result.file).toBe(dead);
     expect(result.error).toMatch(new RegExp(`^${dead.replace(/[.#]/g, '\\$&')}.*: no usable pixel`));
+    // The fibre table still says which object failed, and where it is.
+    const t = truth.find((x) => x.id === dead)!;
+    expect(result.input.meta).toEqual({ objectId: t.objectId, raDeg: t.raDeg, decDeg: t.decDeg });
     const next = kept.find((t) => t.fibre > PLATE_DEAD_FIBRE && t.expect === 'spectrum')!;
     expect(fitBytes(file.bytes, next.id).status).toBe('ok');
   });

@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it, onTestFailed } from 'vitest'
 import type { Page } from 'playwright-core';
 import { simulateSpectrum, createRng } from '../../src/core/sim';
 import { writeTextLayout } from '../../src/core/sim/sampleText';
-import { listDemoFiles } from '../../scripts/demoSetPlugin';
+import { demoRowIds } from '../helpers/demoRows';
 import { join } from 'node:path';
 import {
   ROOT,
@@ -26,7 +26,8 @@ import {
   type OwnChromium,
 } from './harness';
 
-const DEMO_COUNT = listDemoFiles(join(ROOT, 'sample-spectra')).length;
+/** Rows of the demo set: a file each, the plate a row per fibre (test/helpers/demoRows.ts). */
+const DEMO_COUNT = demoRowIds(join(ROOT, 'sample-spectra')).length;
 
 async function waitForNewTitle(page: Page, before: string | null): Promise<string> {
   await page.waitForFunction((b) => {

@@ -11,10 +11,11 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it, onTestFailed } from 'vitest';
 import type { Page } from 'playwright-core';
 import { parseSession } from '../../src/ui/persist/sessionFile';
-import { listDemoFiles } from '../../scripts/demoSetPlugin';
+import { demoRowIds } from '../helpers/demoRows';
 import { ROOT, artifactPath, browserAvailable, buildApp, releaseApp, launchBrowser, serveDist, waitForFitting, watchRequests } from './harness';
 
-const DEMO_COUNT = listDemoFiles(join(ROOT, 'sample-spectra')).length;
+/** Rows of the demo set: a file each, the plate a row per fibre (test/helpers/demoRows.ts). */
+const DEMO_COUNT = demoRowIds(join(ROOT, 'sample-spectra')).length;
 
 /** Runs in the page before the app: put/add refuse while window.__refuseWrites is true. */
 const REFUSE_WRITES = `(() => {

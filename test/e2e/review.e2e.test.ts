@@ -16,6 +16,7 @@ import { AUTOMATIC_COLUMNS, automaticRow } from '../../src/core/table';
 import { fitBytes } from '../../src/core/pipeline';
 import { DEFAULT_COSMOLOGY, describeCosmology } from '../../src/core/cosmology';
 import { listDemoFiles } from '../../scripts/demoSetPlugin';
+import { demoPlateFailures, demoRowIds } from '../helpers/demoRows';
 import {
   ROOT,
   artifactPath,
@@ -34,6 +35,8 @@ import {
 const DEMO_DIR = join(ROOT, 'sample-spectra');
 /** Files of the demo set as the app names them (same list the build ships in index.json). */
 const DEMO_FILES = listDemoFiles(DEMO_DIR).map((rel) => `sample-spectra/${rel}`);
+/** Rows of the demo set: a file each, the plate a row per fibre (test/helpers/demoRows.ts). */
+const DEMO_ROWS = demoRowIds(DEMO_DIR);
 const TRUTH = parseTruthCsv(readFileSync(join(DEMO_DIR, 'truth.csv'), 'utf8'));
 const REVIEWER = 'Test Reviewer';
 
@@ -129,12 +132,13 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
       for (const s of sources) expect(s, `${name} allows ${s}`).toMatch(/^('self'|'unsafe-inline'|data:|blob:)$/);
     }
 
-    await waitForFitting(page, DEMO_FILES.length);
-    const broken = TRUTH.filter((t) => t.layout === 'broken').length;
+    await waitForFitting(page, DEMO_ROWS.length);
+    // sample-spectra/truth.csv: 12 broken files; truth-plate.csv: one dead fibre, which fails alone.
+    const broken = TRUTH.filter((t) => t.layout === 'broken').length + demoPlateFailures(DEMO_DIR);
     // Files that cannot be read are not counted as work to review.
-    const reviewable = DEMO_FILES.length - broken;
-    expect(await page.getByTestId('count-failed').textContent()).toBe(`${broken} failed`); // sample-spectra/truth.csv: 12 broken files
-    expect(await page.getByTestId('count-done').textContent()).toBe(`${DEMO_FILES.length - broken} done`);
+    const reviewable = DEMO_ROWS.length - broken;
+    expect(await page.getByTestId('count-failed').textContent()).toBe(`${broken} failed`);
+    expect(await page.getByTestId('count-done').textContent()).toBe(`${DEMO_ROWS.length - broken} done`);
     await page.getByTestId('review-title').waitFor();
     // The list opens on spectra to review, the deliberately broken files come last.
     expect(await page.getByTestId('spectrum-row').first().locator('.c-warn').textContent()).toBe('');
@@ -247,9 +251,9 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
     await page.getByTestId('export-panel').waitFor();
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-download').click()]);
     const csvText = readFileSync((await download.path())!, 'utf8');
-    await expect.poll(() => page.getByTestId('export-status').textContent()).toContain(`Saved ${DEMO_FILES.length} rows`);
+    await expect.poll(() => page.getByTestId('export-status').textContent()).toContain(`Saved ${DEMO_ROWS.length} rows`);
     const table = parseCatalogueCsv(csvText);
-    expect(table.rows.map((r) => r.file).sort()).toEqual([...DEMO_FILES].sort());
+    expect(table.rows.map((r) => r.file).sort()).toEqual([...DEMO_ROWS].sort());
     expect(table.meta.cosmology).toBe(describeCosmology(DEFAULT_COSMOLOGY));
     expect(table.meta.caution).toMatch(/unreviewed.*hypotheses/);
     expect(table.rows.find((x) => x.object_id === made[0].objectId)!.review_flags).toBe('low-snr');

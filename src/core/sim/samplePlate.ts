@@ -7,10 +7,9 @@
  * everywhere, which the table does not say), so a reader must drop ten rows
  * and refuse one on its own. Pure: returns bytes and the truth.
  *
- * Not yet part of buildSampleSet: the pipeline reads one spectrum per file
- * until readSpectra (core/io/readSpectra.ts) is wired into the worker, CLI and
- * UI; adding the plate to sample-spectra/ before that would show it as a
- * failed file.
+ * scripts/make-samples.ts writes it to sample-spectra/ beside the demo set of
+ * buildSampleSet (whose files stay as they were), with its own truth table,
+ * PLATE_TRUTH_NAME (plateTruthCsv).
  */
 import { createRng, mixSeed } from './prng';
 import { makeGrid, DEFAULT_GRID } from './grid';
@@ -26,6 +25,8 @@ export const PLATE_NAME = 'mrx-plate-p01.fits';
 export const PLATE_SKY_FIBRES: readonly number[] = [5, 13, 21, 29, 37, 45, 53, 61];
 export const PLATE_UNUSED_FIBRES: readonly number[] = [32, 64];
 export const PLATE_DEAD_FIBRE = 42;
+/** The plate's truth table in sample-spectra/ (the fitter and the demo loader skip truth*.csv). */
+export const PLATE_TRUTH_NAME = 'truth-plate.csv';
 
 export interface PlateTruthRow {
   fibre: number;
@@ -122,4 +123,40 @@ export function buildSamplePlate(seed: number): { file: SampleFile; truth: Plate
     }),
   ]);
   return { file: { name: PLATE_NAME, bytes }, truth };
+}
+
+const PLATE_TRUTH_COLUMNS = ['id', 'fibre', 'object_id', 'type', 'class', 'subtype', 'z', 'snr', 'ra_deg', 'dec_deg', 'expect'] as const;
+
+/** The plate's truth as CSV, one row per fibre (numbers fixed-precision; empty cells where not applicable). */
+export function plateTruthCsv(rows: readonly PlateTruthRow[]): string {
+  const num = (v: number, d: number) => (Number.isFinite(v) ? v.toFixed(d) : '');
+  const lines = [PLATE_TRUTH_COLUMNS.join(',')];
+  for (const r of rows) {
+    lines.push([r.id, String(r.fibre), r.objectId, r.type, r.class, r.subtype, num(r.z, 6), num(r.snr, 1), num(r.raDeg, 7), num(r.decDeg, 7), r.expect].join(','));
+  }
+  return lines.join('\n') + '\n';
+}
+
+/** Parse plateTruthCsv back (no cell holds a comma or a quote). */
+export function parsePlateTruthCsv(text: string): PlateTruthRow[] {
+  const lines = text.split('\n').filter((l) => l.trim() !== '');
+  const head = lines[0].split(',');
+  return lines.slice(1).map((line) => {
+    const c = line.split(',');
+    const get = (k: (typeof PLATE_TRUTH_COLUMNS)[number]) => c[head.indexOf(k)] ?? '';
+    const n = (k: (typeof PLATE_TRUTH_COLUMNS)[number]) => (get(k) === '' ? NaN : Number(get(k)));
+    return {
+      id: get('id'),
+      fibre: Number(get('fibre')),
+      objectId: get('object_id'),
+      type: get('type') as PlateTruthRow['type'],
+      class: get('class') as SimClass | '',
+      subtype: get('subtype'),
+      z: n('z'),
+      snr: n('snr'),
+      raDeg: n('ra_deg'),
+      decDeg: n('dec_deg'),
+      expect: get('expect') as PlateTruthRow['expect'],
+    };
+  });
 }

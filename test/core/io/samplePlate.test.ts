@@ -7,7 +7,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { readSpectra } from '../../../src/core/io/readSpectra';
-import { buildSamplePlate, PLATE_DEAD_FIBRE, PLATE_FIBRES, PLATE_NAME } from '../../../src/core/sim/samplePlate';
+import { readFileSync } from 'node:fs';
+import { buildSamplePlate, parsePlateTruthCsv, plateTruthCsv, PLATE_DEAD_FIBRE, PLATE_FIBRES, PLATE_NAME, PLATE_TRUTH_NAME } from '../../../src/core/sim/samplePlate';
 import { SAMPLE_SEED } from '../../../src/core/sim/sampleSet';
 import { SpectrumReadError, type Spectrum } from '../../../src/core/types';
 
@@ -43,5 +44,19 @@ describe('demo plate P01 (invented) through readSpectra', () => {
   it('is the same bytes for the same seed, and under 3 MB', () => {
     expect(Buffer.from(buildSamplePlate(SAMPLE_SEED).file.bytes).equals(Buffer.from(file.bytes))).toBe(true);
     expect(file.bytes.length).toBeLessThan(3e6);
+  });
+
+  it('is in the demo set (sample-spectra/) byte for byte, with its truth table, which reads back to the truth', () => {
+    const demo = new URL('../../../sample-spectra/', import.meta.url);
+    expect(Buffer.from(file.bytes).equals(readFileSync(new URL(PLATE_NAME, demo)))).toBe(true);
+    const text = readFileSync(new URL(PLATE_TRUTH_NAME, demo), 'utf8');
+    expect(text).toBe(plateTruthCsv(truth));
+    const back = parsePlateTruthCsv(text);
+    expect(back.map((t) => [t.id, t.objectId, t.type, t.class, t.expect])).toEqual(truth.map((t) => [t.id, t.objectId, t.type, t.class, t.expect]));
+    back.forEach((t, i) => {
+      if (Number.isFinite(truth[i].z)) expect(t.z).toBeCloseTo(truth[i].z, 6);
+      else expect(t.z).toBeNaN();
+      expect(t.raDeg).toBeCloseTo(truth[i].raDeg, 7);
+    });
   });
 });

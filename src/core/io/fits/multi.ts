@@ -43,6 +43,8 @@ export interface MultiRow {
   /** 1-based row (fibre, object) number in the file. */
   index: number;
   read(id: string): Spectrum;
+  /** What the fibre or object table says of the row (id, position), known even when its data cannot be read. */
+  facts?: { objectId?: string; raDeg?: number; decDeg?: number };
 }
 
 export interface MultiObjectFile {
@@ -244,7 +246,10 @@ function keepRows(
   for (let r = 0; r < nRows; r++) {
     const why = dropReason(facts?.[r]?.type);
     if (why !== undefined) dropped.push({ index: r + 1, type: why });
-    else rows.push(make(r));
+    else {
+      const f = facts?.[r];
+      rows.push(f ? { ...make(r), facts: { objectId: f.objectId, raDeg: f.raDeg, decDeg: f.decDeg } } : make(r));
+    }
   }
   return { rows, dropped };
 }

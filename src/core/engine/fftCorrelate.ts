@@ -69,18 +69,23 @@ export class CorrelationPlan {
   }
 
   /**
-   * correlatePair writing only c(mStart - i) for i = 0 .. count - 1 into
-   * dest1[i] (and dest2[i]): the lags a scan needs, in shift order.
+   * correlatePair writing only the lags a scan needs: c((mFrom + i) mod L)
+   * for i = 0 .. count - 1 into dest1[i] (and dest2[i]), in shift order.
    */
-  correlatePairLags(
-    X1: HalfSpectrum, Y1: HalfSpectrum, dest1: Float64Array, mStart: number, count: number,
+  correlatePairRun(
+    X1: HalfSpectrum, Y1: HalfSpectrum, dest1: Float64Array, mFrom: number, count: number,
     X2?: HalfSpectrum, Y2?: HalfSpectrum, dest2?: Float64Array,
   ): void {
     this.inversePair(X1, Y1, X2, Y2);
+    const L = this.size;
     const V = this.bufOut;
-    const inv = 1 / this.size;
-    for (let i = 0; i < count; i++) dest1[i] = V[2 * (mStart - i)] * inv;
-    if (dest2) for (let i = 0; i < count; i++) dest2[i] = -V[2 * (mStart - i) + 1] * inv;
+    const inv = 1 / L;
+    let m = ((mFrom % L) + L) % L;
+    for (let i = 0; i < count; i++) {
+      dest1[i] = V[2 * m] * inv;
+      if (dest2) dest2[i] = -V[2 * m + 1] * inv;
+      if (++m === L) m = 0;
+    }
   }
 
   /** bufOut = fft(conj(W)), W_k = C1_k + i C2_k; c1 = Re / L, c2 = -Im / L. */

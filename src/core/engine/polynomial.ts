@@ -5,20 +5,21 @@
  * every per-shift solve as a fixed projection (kernels/shiftSolve.ts).
  */
 
-/** Legendre P_0..P_{P-1} at x in [-1, 1] (Bonnet's recursion). */
-function legendre(P: number, x: number, out: Float64Array): void {
-  if (P > 0) out[0] = 1;
-  if (P > 1) out[1] = x;
-  for (let a = 2; a < P; a++) out[a] = ((2 * a - 1) * x * out[a - 1] - (a - 1) * out[a - 2]) / a;
-}
-
-/** Plain Legendre basis over n pixels. */
+/** Plain Legendre basis P_0..P_{P-1} over n pixels, x = pixel index scaled to [-1, 1] (Bonnet's recursion, one polynomial at a time). */
 export function polyBasis(n: number, P: number): Float64Array[] {
-  const basis = Array.from({ length: P }, () => new Float64Array(n));
-  const tmp = new Float64Array(P);
-  for (let i = 0; i < n; i++) {
-    legendre(P, n > 1 ? (2 * i) / (n - 1) - 1 : 0, tmp);
-    for (let a = 0; a < P; a++) basis[a][i] = tmp[a];
+  const basis: Float64Array[] = [];
+  const x = new Float64Array(n);
+  for (let i = 0; i < n; i++) x[i] = n > 1 ? (2 * i) / (n - 1) - 1 : 0;
+  for (let a = 0; a < P; a++) {
+    const out = new Float64Array(n);
+    if (a === 0) out.fill(1);
+    else if (a === 1) out.set(x);
+    else {
+      const p1 = basis[a - 1];
+      const p2 = basis[a - 2];
+      for (let i = 0; i < n; i++) out[i] = ((2 * a - 1) * x[i] * p1[i] - (a - 1) * p2[i]) / a;
+    }
+    basis.push(out);
   }
   return basis;
 }
@@ -31,18 +32,19 @@ export function polyBasis(n: number, P: number): Float64Array[] {
 export function weightedOrthonormalPolys(w: Float64Array, P: number, raw: Float64Array[] = polyBasis(w.length, P)): Float64Array[] {
   const out: Float64Array[] = [];
   const n = w.length;
+  // Weights are >= 0 and the polynomials finite, so pixels with w = 0 add
+  // exact zeros: the sums run over every pixel without a branch.
   for (const v of raw.slice(0, P)) {
     const u = Float64Array.from(v);
     for (const q of out) {
       let d = 0;
-      for (let i = 0; i < n; i++) if (w[i] > 0) d += w[i] * u[i] * q[i];
+      for (let i = 0; i < n; i++) d += w[i] * u[i] * q[i];
       for (let i = 0; i < n; i++) u[i] -= d * q[i];
     }
     let nn = 0;
     let raw2 = 0;
     for (let i = 0; i < n; i++) {
       const wi = w[i];
-      if (!(wi > 0)) continue;
       nn += wi * u[i] * u[i];
       raw2 += wi * v[i] * v[i];
     }

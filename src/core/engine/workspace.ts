@@ -1,6 +1,6 @@
 /**
  * FitWorkspace: everything a thread reuses from fit to fit (FFT plans, the
- * template side of the scan's correlations, scratch buffers), owned by the
+ * template side of the scan's correlations, binned template vectors), owned by the
  * caller (one per browser worker or CLI thread, or one per test) and passed
  * down. Nothing in the engine keeps state of its own.
  */
@@ -14,7 +14,6 @@ const TEMPLATE_CACHE_MAX = 24;
 export class FitWorkspace {
   private readonly plans = new Map<number, CorrelationPlan>();
   private readonly templates = new Map<string, TemplateSpectra>();
-  private readonly scratchBufs = new Map<string, Float64Array>();
   /** Data transforms of the spectrum being fitted (keyed by its ScanData object; dropped with it). */
   private dataOwner: ScanData | null = null;
   private readonly dataByL = new Map<number, DataSpectra>();
@@ -60,16 +59,6 @@ export class FitWorkspace {
   releaseData(): void {
     this.dataOwner = null;
     this.dataByL.clear();
-  }
-
-  scratch(length: number, slot: number): Float64Array {
-    const key = `${length}|${slot}`;
-    let b = this.scratchBufs.get(key);
-    if (!b) {
-      b = new Float64Array(length);
-      this.scratchBufs.set(key, b);
-    }
-    return b;
   }
 
   binnedVectors(f: Family, which: 'scan' | 'full', factor: number, build: () => { kStart: number; vectors: Float64Array[] }) {

@@ -33,7 +33,7 @@ describe('CorrelationPlan', () => {
     }
   });
 
-  it('correlatePairLags writes c(mStart - i) of correlatePair, for one pair and for two', () => {
+  it('correlatePairRun writes c((mFrom + i) mod L) of correlatePair, wrapping past L, for one pair and for two', () => {
     const L = 128;
     const r = rand(11);
     const x1 = Float64Array.from({ length: 40 }, r);
@@ -48,15 +48,16 @@ describe('CorrelationPlan', () => {
     plan.correlatePair(X1, Y1, c1, X2, Y2, c2);
     const a = new Float64Array(30);
     const b = new Float64Array(30);
-    plan.correlatePairLags(X1, Y1, a, 90, 30, X2, Y2, b);
+    // lags 110 .. 139 wrap past L = 128 to 0 .. 11; a negative start counts from the end
+    plan.correlatePairRun(X1, Y1, a, 110, 30, X2, Y2, b);
     for (let i = 0; i < 30; i++) {
-      expect(a[i]).toBe(c1[90 - i]);
-      expect(b[i]).toBe(c2[90 - i]);
+      expect(a[i]).toBe(c1[(110 + i) % L]);
+      expect(b[i]).toBe(c2[(110 + i) % L]);
     }
     const single = new Float64Array(30);
-    plan.correlatePairLags(X1, Y1, single, 90, 30);
+    plan.correlatePairRun(X1, Y1, single, -18, 30);
     // one pair: the same lags to round-off (the second slot of the transform is empty)
-    for (let i = 0; i < 30; i++) expect(Math.abs(single[i] - c1[90 - i])).toBeLessThan(1e-12 * (1 + Math.abs(c1[90 - i])));
+    for (let i = 0; i < 30; i++) expect(Math.abs(single[i] - c1[(L - 18 + i) % L])).toBeLessThan(1e-12 * (1 + Math.abs(c1[(L - 18 + i) % L])));
   });
 
   it('rejects sizes that are not powers of two', () => {

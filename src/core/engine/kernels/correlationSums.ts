@@ -101,22 +101,11 @@ export function correlationSums(
       jobs.push([tmpl.vectors[j], dat.wq[a], dest]);
     }
   }
-  const L = geo.L;
-  const out1 = ws.scratch(L, 0);
-  const out2 = ws.scratch(L, 1);
   for (let q = 0; q < jobs.length; q += 2) {
     const [x1, y1, d1] = jobs[q];
     const second = jobs[q + 1];
-    if (second) plan.correlatePair(x1, y1, out1, second[0], second[1], out2);
-    else plan.correlatePair(x1, y1, out1);
-    // lag mLo + s sits at index (mLo + s) mod L: two contiguous runs at most
-    for (let s = 0; s < nShift; ) {
-      const m0 = (((geo.mLo + s) % L) + L) % L;
-      const run = Math.min(nShift - s, L - m0);
-      d1.set(out1.subarray(m0, m0 + run), s);
-      if (second) second[2].set(out2.subarray(m0, m0 + run), s);
-      s += run;
-    }
+    if (second) plan.correlatePairRun(x1, y1, d1, geo.mLo, nShift, second[0], second[1], second[2]);
+    else plan.correlatePairRun(x1, y1, d1, geo.mLo, nShift);
   }
   return { nShift, tt, tf, tq };
 }

@@ -2,6 +2,7 @@
  * The data contracts every layer relies on. Units live in the names:
  * wavelengths are vacuum Angstrom, velocities km/s.
  */
+import type { QuasarMeasurement } from './physics/types';
 
 /** Header facts carried with a spectrum; every field optional. */
 export interface SpectrumMeta {
@@ -159,6 +160,8 @@ export interface FitResult {
   input: { nPix: number; lambdaMinA: number; lambdaMaxA: number; medianSnr: number; meta: SpectrumMeta; format: string };
   /** Input pixels masked before the fit, by reason (absent in results saved before it existed). */
   masked?: { reason: string; pixels: number }[];
+  /** Quasar physics measured at z (src/core/physics); absent for other classes and in results saved before it existed. */
+  quasar?: QuasarMeasurement;
 }
 
 export type ReviewState = 'unreviewed' | 'accepted' | 'changed' | 'rejected';

@@ -10,11 +10,14 @@ import type { FitResult, LineMeasurement, Spectrum, SpectrumClass } from '../cor
 import { SpectrumReadError } from '../core/types';
 import { fitBytes, fitOrSplit, type FileWork } from '../core/pipeline';
 import { readSpectrumById } from '../core/io/readSpectra';
-import { FitWorkspace, locateFeature, measureLines, refitNear, solutionModel, suggestLines } from '../core/engine';
+import { FitWorkspace, fitSpectrum, locateFeature, measureLines, refitNear, solutionModel, suggestLines } from '../core/engine';
+import { maskRanges } from '../core/physics/maskRanges';
 
 /** This worker's engine workspace: FFT plans and template transforms reused from fit to fit. */
 const workspace = new FitWorkspace();
 import { LruCache } from './lruCache';
+import { withQuasarMeasurement, safeMeasureQuasar } from '../core/physics/attach';
+import type { QuasarMeasurement } from '../core/physics/types';
 
 /** A catalogue line a located feature could be (the engine's own answer type). */
 export type LineSuggestion = ReturnType<typeof suggestLines>[number];
@@ -49,6 +52,13 @@ export interface FitWorkerApi {
   measureLines(key: string, z: number, cls: SpectrumClass): LineMeasurement[] | null;
   /** Best-fit model flux of a template family at z on the spectrum's own grid (NaN where undefined); null when not open. */
   solutionModel(key: string, z: number, family: string): Float64Array | null;
+  /** Quasar physics at z (continuum, broad lines, absorption troughs); null when the spectrum is not open. */
+  measureQuasar(key: string, z: number): QuasarMeasurement | null;
+  /**
+   * Fit again with the observed ranges (Angstrom) masked, e.g. absorption troughs:
+   * near zCentre when given, else over the whole range; null when not open.
+   */
+  refitMasked(key: string, rangesA: [number, number][], zCentre: number | null): FitResult | null;
 }
 
 /** Parsed spectra kept per worker (a few MB at most for 20,000-pixel spectra). */
@@ -88,12 +98,14 @@ export function createFitWorkerApi(cacheEntries = SPECTRUM_CACHE_ENTRIES): FitWo
   return {
     cache,
     fitFile(bytes, file) {
-      const result = fitBytes(bytes, file, { workspace });
+      const result = withQuasarMeasurement(fitBytes(bytes, file, { workspace }), bytes, file);
       return transfer(result, fitResultBuffers(result));
     },
     fitOrSplit(bytes, file) {
       const work = fitOrSplit(bytes, file, { workspace });
-      return work.kind === 'fitted' ? transfer(work, fitResultBuffers(work.result)) : work;
+      if (work.kind !== 'fitted') return work;
+      const fitted = { ...work, result: withQuasarMeasurement(work.result, bytes, file) };
+      return transfer(fitted, fitResultBuffers(fitted.result));
     },
     openSpectrum(key, file, bytes) {
       let spectrum = cache.get(key);
@@ -133,6 +145,19 @@ export function createFitWorkerApi(cacheEntries = SPECTRUM_CACHE_ENTRIES): FitWo
       if (!spectrum) return null;
       const model = solutionModel(spectrum, z, family);
       return transfer(model, [model.buffer as ArrayBuffer]);
+    },
+    measureQuasar(key, z) {
+      const spectrum = cache.get(key);
+      if (!spectrum) return null;
+      return safeMeasureQuasar(spectrum, z);
+    },
+    refitMasked(key, rangesA, zCentre) {
+      const spectrum = cache.get(key);
+      if (!spectrum) return null;
+      const masked = maskRanges(spectrum, rangesA);
+      const fitted = zCentre === null ? fitSpectrum(masked, { workspace }) : refitNear(masked, zCentre, { workspace });
+      const result = fitted.status === 'ok' && fitted.class === 'qso' ? { ...fitted, quasar: safeMeasureQuasar(spectrum, fitted.z) } : fitted;
+      return transfer(result, fitResultBuffers(result));
     },
   };
 }

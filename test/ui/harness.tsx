@@ -32,6 +32,8 @@ export function fakeReview(over: Partial<ReviewApi> = {}): ReviewApi {
     nameFeature: vi.fn(async () => ({ feature: null, suggestions: [] })),
     measureLines: vi.fn(async () => []),
     solutionModel: vi.fn(async () => null),
+    measureQuasar: vi.fn(async () => null),
+    refitMasked: vi.fn(async () => null),
     ...over,
   };
 }

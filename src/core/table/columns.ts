@@ -4,6 +4,7 @@
  * Units live in the names and in `unit` (VOUnit spelling, '' = dimensionless).
  */
 import { REVIEW_FLAGS } from '../types';
+import { PHYSICS_COLUMN_DEFS } from '../physics/columns';
 
 /** The review_flags column's description: every flag id with its meaning. */
 const FLAGS_DESCRIPTION = `Problems the reviewer marked, ';'-separated, in this order: ${REVIEW_FLAGS.map((f) => `${f.id} (${f.label})`).join(', ')}; empty when none or unreviewed`;
@@ -11,8 +12,8 @@ const FLAGS_DESCRIPTION = `Problems the reviewer marked, ';'-separated, in this 
 /** text: free text or a code word; float: fixed decimals; int: integer; bool: 'true'/'false'. */
 export type ColumnType = 'text' | 'float' | 'int' | 'bool';
 
-/** automatic: from the fit; review: from a person; derived: cosmology at the chosen z. */
-export type ColumnGroup = 'automatic' | 'review' | 'derived';
+/** automatic: from the fit; review: from a person; derived: cosmology at the chosen z; physics: quasar quantities (src/core/physics). */
+export type ColumnGroup = 'automatic' | 'review' | 'derived' | 'physics';
 
 export interface ColumnDef {
   name: string;
@@ -68,6 +69,7 @@ const DEFS = [
   { name: 'dist_mod_mag', unit: 'mag', type: 'float', decimals: 4, group: 'derived', ucd: 'phot.mag.distMod', description: 'Distance modulus 5 log10(D_L / 10 pc)' },
   { name: 'ang_diam_dist_mpc', unit: 'Mpc', type: 'float', decimals: 2, group: 'derived', description: 'Angular diameter distance' },
   { name: 'kpc_per_arcsec', unit: 'kpc/arcsec', type: 'float', decimals: 4, group: 'derived', description: 'Proper transverse size of one arcsecond at the redshift' },
+  ...PHYSICS_COLUMN_DEFS,
 ] as const satisfies readonly ColumnDef[];
 
 /** Every column name of the catalogue. */

@@ -8,6 +8,7 @@ import { derivedQuantities } from '../cosmology';
 import { AUTOMATIC_COLUMNS, CATALOGUE_COLUMNS, type ColumnDef, type ColumnName, type TableRow } from './columns';
 import { formatCell, type CellValue } from './formatCell';
 import { oneLine } from './meta';
+import { physicsCells } from '../physics/rowValues';
 
 type Values = Partial<Record<ColumnName, CellValue>>;
 
@@ -73,7 +74,8 @@ function derivedValues(z: number | null | undefined, cls: SpectrumClass, from: '
 export function automaticRow(result: FitResult, cosmo: CosmologyParams): TableRow {
   const auto = automaticValues(result);
   const derived = result.status === 'ok' ? derivedValues(result.z, result.class, 'auto', cosmo) : { derived_from: '' };
-  return build(AUTOMATIC_COLUMNS, { ...auto, ...derived });
+  const physics = result.status === 'ok' ? physicsCells(result, result.z, result.class, cosmo) : {};
+  return build(AUTOMATIC_COLUMNS, { ...auto, ...derived, ...(physics as Values) });
 }
 
 /**
@@ -107,8 +109,13 @@ export function catalogueRow(result: FitResult, decision: ReviewDecision | undef
     } satisfies Values);
   }
   let derived: Values;
-  if (decided && decision) derived = derivedValues(decision.z, decision.class, 'final', cosmo);
-  else if (state === 'unreviewed' && result.status === 'ok') derived = derivedValues(result.z, result.class, 'auto', cosmo);
-  else derived = { derived_from: '' };
-  return build(CATALOGUE_COLUMNS, { ...auto, ...review, ...derived });
+  let physics: Values = {};
+  if (decided && decision) {
+    derived = derivedValues(decision.z, decision.class, 'final', cosmo);
+    physics = physicsCells(result, decision.z, decision.class, cosmo) as Values;
+  } else if (state === 'unreviewed' && result.status === 'ok') {
+    derived = derivedValues(result.z, result.class, 'auto', cosmo);
+    physics = physicsCells(result, result.z, result.class, cosmo) as Values;
+  } else derived = { derived_from: '' };
+  return build(CATALOGUE_COLUMNS, { ...auto, ...review, ...derived, ...physics });
 }

@@ -34,10 +34,10 @@ describe('CATALOGUE_COLUMNS', () => {
 });
 
 describe('AUTOMATIC_COLUMNS', () => {
-  it('is the catalogue without the review columns, same order, starting file, ..., ending with derived', () => {
+  it('is the catalogue without the review columns, same order, starting file, ..., ending with the quasar physics', () => {
     expect(AUTOMATIC_COLUMNS.some((c) => c.group === 'review')).toBe(false);
     expect(AUTOMATIC_COLUMNS.map((c) => c.name)).toEqual(CATALOGUE_COLUMNS.filter((c) => c.group !== 'review').map((c) => c.name));
     expect(AUTOMATIC_COLUMNS[0].name).toBe('file');
-    expect(AUTOMATIC_COLUMNS.at(-1)?.name).toBe('kpc_per_arcsec');
+    expect(AUTOMATIC_COLUMNS.at(-1)?.name).toBe('n_civ_troughs');
   });
 });

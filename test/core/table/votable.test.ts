@@ -106,13 +106,16 @@ describe('catalogueVotable(rows, columns, meta)', () => {
  * optional numeric factor, units joined by '.', powers as '**n', at most one
  * solidus), sec. 2.4 units with the SI prefixes they may take. Only the units
  * this project could write are listed; 'Angstrom' is deprecated (sec. 2.5).
+ * Sec. 2.6 functions: a decimal logarithm of a unit is written log(unit)
+ * (from memory), as the quasar luminosity and mass columns do.
  */
 const PREFIXED = ['m', 's', 'pc', 'yr', 'arcsec', 'g', 'Jy'];
-const PLAIN = ['deg', 'mag', 'Angstrom'];
+const PLAIN = ['deg', 'mag', 'Angstrom', 'erg', 'solMass'];
 const SI_PREFIX = '(?:da|[yzafpnumcdhkMGTPEZY])?';
 const ATOM = `(?:${SI_PREFIX}(?:${PREFIXED.join('|')})|${PLAIN.join('|')})(?:\\*\\*-?\\d+)?`;
 const PRODUCT = `${ATOM}(?:\\.${ATOM})*`;
-const VOUNIT = new RegExp(`^(?:\\d+(?:\\.\\d+)?)?${PRODUCT}(?:/${ATOM})?$`);
+const QUOTIENT = `(?:\\d+(?:\\.\\d+)?)?${PRODUCT}(?:/${ATOM})?`;
+const VOUNIT = new RegExp(`^(?:${QUOTIENT}|log\\(${QUOTIENT}\\))$`);
 const vounitOk = (u: string) => VOUNIT.test(u) && !/Angstrom/.test(u);
 
 /** VOTable 1.4 sec. 2.1, table 1: the primitive datatypes. */
@@ -120,8 +123,8 @@ const DATATYPES = ['boolean', 'bit', 'unsignedByte', 'short', 'int', 'long', 'ch
 
 describe('the checker of VOUnit strings (test helper)', () => {
   it('accepts VOUnit spellings and refuses what VOUnit 1.0 rules out, so the checks below can fail', () => {
-    for (const u of ['deg', 'Mpc', 'Gyr', 'km/s', 'kpc/arcsec', '0.1nm', 'km.s**-1.Mpc**-1', 'mag']) expect(vounitOk(u), u).toBe(true);
-    for (const u of ['km/s/Mpc', 'Angstrom', 'km s-1', 'parsec']) expect(vounitOk(u), u).toBe(false);
+    for (const u of ['deg', 'Mpc', 'Gyr', 'km/s', 'kpc/arcsec', '0.1nm', 'km.s**-1.Mpc**-1', 'mag', 'log(erg/s)', 'log(solMass)']) expect(vounitOk(u), u).toBe(true);
+    for (const u of ['km/s/Mpc', 'Angstrom', 'km s-1', 'parsec', '[erg/s]', 'log(erg/s/cm)']) expect(vounitOk(u), u).toBe(false);
   });
   it('voUnit rewrites only the deprecated Angstrom', () => {
     expect(voUnit('Angstrom')).toBe('0.1nm'); // VOUnit 1.0 sec. 2.5: 1 Angstrom = 0.1 nm

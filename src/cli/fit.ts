@@ -32,7 +32,19 @@ import {
   type TableWriter,
 } from '../core/table';
 import { SOFTWARE_NAME, SOFTWARE_VERSION } from '../core/version';
+import { ENGINE_VERSION, TEMPLATE_SET_ID } from '../core/engine/version';
 import type { FitJob, FitJobResult } from './fitThread';
+
+/**
+ * A fit thread. Run from the bundle (scripts/cli-bundle.mjs: npm run fit),
+ * this module is fit.mjs and the thread's own bundle lies beside it; run from
+ * the sources under tsx (the tests), Node 20 does not pass tsx's loader on to
+ * worker_threads, so the thread boots through tsWorker.mjs, which registers it.
+ */
+function spawnFitThread(): Worker {
+  if (import.meta.url.endsWith('.mjs')) return new Worker(new URL('./fitThread.mjs', import.meta.url));
+  return new Worker(new URL('./tsWorker.mjs', import.meta.url), { workerData: { entry: new URL('./fitThread.ts', import.meta.url).href } });
+}
 
 async function main(argv: string[]): Promise<number> {
   const options = parseFitOptions(argv, availableParallelism());
@@ -44,8 +56,6 @@ async function main(argv: string[]): Promise<number> {
   // Inputs are checked before the engine loads: a mistyped path answers at once.
   const all = expandInputFiles(options.inputs);
   const files = selectShard(all, shard);
-  // The engine (for its version and template set id) loads only for a real run: --help and option errors answer at once.
-  const { ENGINE_VERSION, TEMPLATE_SET_ID } = await import('../core/engine');
 
   const open = (path: string | undefined): WriteStream | NodeJS.WriteStream => {
     const stream = path ? createWriteStream(path) : process.stdout;
@@ -84,12 +94,10 @@ async function main(argv: string[]): Promise<number> {
   if (writer) await write(writer.begin());
   if (linesOut && linesWriter) await writeTo(linesOut, linesWriter.begin());
 
-  const bootUrl = new URL('./tsWorker.mjs', import.meta.url);
-  const entry = new URL('./fitThread.ts', import.meta.url).href;
   const pool = new ThreadPool<FitJob, FitJobResult>({
     size: Math.min(jobs, Math.max(1, files.length)),
     timeLimitMs: timeLimitS * 1000,
-    spawn: () => new Worker(bootUrl, { workerData: { entry } }),
+    spawn: spawnFitThread,
   });
 
   const started = Date.now();

@@ -14,6 +14,8 @@ import { SessionLoader } from './panels/SessionLoader';
 import type { Collected } from './intake/collectFiles';
 import { loadDemo } from './demo/loadDemo';
 import { downloadBlob, stamp } from './download';
+import { screenAgainstPacket } from './team/screenFiles';
+import { TeamView } from './team/TeamView';
 
 export interface AppProps {
   services: Services;
@@ -36,6 +38,7 @@ function Shell({ autoDemo, fetchFn }: { autoDemo: boolean; fetchFn?: typeof fetc
   const snap = useSessionSnapshot();
   const [notices, setNotices] = useState<string[]>([]);
   const [demoState, setDemoState] = useState<string | null>(null);
+  const [teamOpen, setTeamOpen] = useState(false);
   const demoAsked = useRef(false);
 
   useEffect(() => {
@@ -53,8 +56,11 @@ function Shell({ autoDemo, fetchFn }: { autoDemo: boolean; fetchFn?: typeof fetc
       const store = async () => {
         if (!c.files.length) return;
         droppedSoFar.current += c.files.length;
+        // A batch opened from a packet refuses, by name, a file named like one of its spectra with other contents.
+        const screened = await screenAgainstPacket(session.teamTag(), c.files);
+        if (screened.refused.length) setNotices((n) => [...n, ...screened.refused]);
         await session
-          .addFilesReport(c.files)
+          .addFilesReport(screened.files)
           .then(({ duplicates }) => {
             if (duplicates.length) setNotices((n) => [...n, duplicateNotice(duplicates)]);
           })
@@ -103,6 +109,9 @@ function Shell({ autoDemo, fetchFn }: { autoDemo: boolean; fetchFn?: typeof fetc
       <header className="app-header">
         <h1>Shiftmark</h1>
         <span className="tagline">redshift review workbench</span>
+        <button type="button" className="team-toggle" onClick={() => setTeamOpen((o) => !o)} data-testid="team-toggle">
+          {teamOpen ? 'Back to reviewing' : 'Team review'}
+        </button>
       </header>
       {snap.persistError && <PersistBanner message={snap.persistError} onExport={() => void exportSessionNow()} onDismiss={() => session.dismissPersistError()} />}
       {notices.length > 0 && (
@@ -125,6 +134,8 @@ function Shell({ autoDemo, fetchFn }: { autoDemo: boolean; fetchFn?: typeof fetc
       <ProgressPanel progress={snap.progress} unfitted={unfitted} onCancel={() => session.cancel()} onResume={() => void session.resume()} />
       {!snap.restored ? (
         <p className="loading">Opening the stored session…</p>
+      ) : teamOpen ? (
+        <TeamView />
       ) : hasBatch ? (
         <Workbench onCollected={addCollected} onDemo={() => void loadDemoSet()} onExportSession={() => void exportSessionNow()} />
       ) : (

@@ -7,6 +7,7 @@
 import { useRef, useState } from 'react';
 import { useServices, useSessionSnapshot } from '../state/SessionContext';
 import type { ImportPlan } from '../persist/planImport';
+import type { SessionFile } from '../persist/sessionFile';
 
 export function SessionLoader({ onLoaded }: { onLoaded?: () => void }) {
   const { session } = useServices();
@@ -14,7 +15,7 @@ export function SessionLoader({ onLoaded }: { onLoaded?: () => void }) {
   const [status, setStatus] = useState<string | null>(null);
   const [problems, setProblems] = useState<string[]>([]);
   /** A checked file waiting for the reviewer's choice: merge or replace, and which conflicts to take. */
-  const [waiting, setWaiting] = useState<{ text: string; name: string; plan: ImportPlan; entries: number } | null>(null);
+  const [waiting, setWaiting] = useState<{ text: string; name: string; plan: ImportPlan; entries: number; team?: SessionFile['team'] } | null>(null);
   const [mode, setMode] = useState<'merge' | 'replace'>('merge');
   const [take, setTake] = useState<Set<string>>(new Set());
   const fileInput = useRef<HTMLInputElement>(null);
@@ -42,11 +43,20 @@ export function SessionLoader({ onLoaded }: { onLoaded?: () => void }) {
     }
     if (snap.rows.length === 0) {
       await apply(planned.plan, new Set());
+      await adoptPacket(planned.session.team);
       return;
     }
     setMode('merge');
     setTake(new Set());
-    setWaiting({ text, name: file.name, plan: planned.plan, entries: planned.session.entries.length });
+    setWaiting({ text, name: file.name, plan: planned.plan, entries: planned.session.entries.length, team: planned.session.team });
+  };
+
+  /** A review packet (or a session saved from one) opened as the batch: remember the packet and whose it is. */
+  const adoptPacket = async (team: SessionFile['team']) => {
+    if (!team) return;
+    await session.setTeamTag(team).catch(() => undefined);
+    await session.setReviewer(team.reviewer);
+    setStatus((s) => `${s ?? ''} Review packet of batch ${team.batchId} for ${team.reviewer}: ${team.spectra.length} spectra.`.trim());
   };
 
   const confirm = async () => {
@@ -60,6 +70,7 @@ export function SessionLoader({ onLoaded }: { onLoaded?: () => void }) {
     }
     setWaiting(null);
     setStatus(`Replaced: the batch is now the file's ${done.plan.newEntries.length} spectra with ${done.plan.decisions.length} decisions.`);
+    await adoptPacket(waiting.team);
     onLoaded?.();
   };
 
@@ -67,7 +78,7 @@ export function SessionLoader({ onLoaded }: { onLoaded?: () => void }) {
   return (
     <div className="session-loader">
       <button type="button" onClick={() => fileInput.current?.click()} data-testid="load-session">
-        Load a session file…
+        Load a session file or review packet…
       </button>
       <input
         ref={fileInput}

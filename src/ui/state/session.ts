@@ -16,6 +16,7 @@ import { fileKey } from '../persist/fileKey';
 import { encodeSession, parseSession, SESSION_FORMAT, SESSION_VERSION, type SessionFile } from '../persist/sessionFile';
 import { planImport, type ImportPlan } from '../persist/planImport';
 import { SOFTWARE_NAME_VERSION } from '../version';
+import { teamTagProblems, type TeamTag } from '../../core/team/teamTag';
 import { isSpectrumKey, spectrumEntries } from './spectrumRows';
 
 export type RowStatus = 'waiting' | 'fitting' | 'ok' | 'failed' | 'timeout' | 'cancelled';
@@ -107,6 +108,8 @@ export class Session {
   private nextOrder = 0;
   private view: SavedView | null = null;
   private draft: StagedDraft | null = null;
+  /** The team block when this batch came from a review packet (saved with every session file). */
+  private team: TeamTag | null = null;
   /** Multi-object files already split into their spectra, by file key: they hold the bytes but are no row. */
   private splitFiles = new Map<string, EntryRecord>();
 
@@ -176,13 +179,15 @@ export class Session {
 
   /** Read the stored batch, decisions and settings; re-queue files a closed tab left unfitted. */
   async restore(): Promise<void> {
-    const [loaded, reviewer, cosmology, view, draft] = await Promise.all([
+    const [loaded, reviewer, cosmology, view, draft, team] = await Promise.all([
       this.db.loadSession(),
       this.db.getSetting<string>('reviewer'),
       this.db.getSetting<CosmologyParams>('cosmology'),
       this.db.getSetting<SavedView>('view'),
       this.db.getSetting<StagedDraft>('draft'),
+      this.db.getSetting<TeamTag>('team'),
     ]);
+    if (team && teamTagProblems(team).length === 0) this.team = team;
     if (typeof reviewer === 'string' && reviewer.trim()) this.reviewer = reviewer;
     if (view && typeof view === 'object') this.view = view;
     if (draft && typeof draft === 'object' && typeof draft.key === 'string') this.draft = draft;
@@ -531,6 +536,19 @@ export class Session {
     this.nextOrder = 0;
     this.progress = EMPTY_PROGRESS;
     this.draft = null;
+    this.team = null;
+    await this.db.putSetting('team', null).catch(() => undefined);
+  }
+
+  /** The review packet this batch came from, or null. */
+  teamTag(): TeamTag | null {
+    return this.team;
+  }
+
+  /** Remember the packet this batch came from (kept in the browser and written into saved sessions). */
+  async setTeamTag(tag: TeamTag | null): Promise<void> {
+    this.team = tag;
+    await this.db.putSetting('team', tag);
   }
 
   /**
@@ -571,6 +589,7 @@ export class Session {
       reviewer: this.reviewer ?? '',
       cosmology: this.cosmology,
       entries,
+      ...(this.team ? { team: this.team } : {}),
     });
   }
 

@@ -1,0 +1,31 @@
+/**
+ * Spectra dropped into a batch opened from a packet that carried references
+ * only: each file named like one of the packet's is checked by SHA-256. A
+ * file with other contents is refused by name; a matching one takes the
+ * packet's name for it, so it joins its entry (same key) instead of
+ * becoming a new spectrum. Files the packet does not name pass unchanged.
+ */
+import { contentHash, type TeamTag } from '../../core/team';
+import type { IncomingFile } from '../state/session';
+
+const baseName = (p: string) => p.slice(p.lastIndexOf('/') + 1);
+
+export async function screenAgainstPacket(tag: TeamTag | null, files: readonly IncomingFile[]): Promise<{ files: IncomingFile[]; refused: string[] }> {
+  if (!tag) return { files: [...files], refused: [] };
+  const byPath = new Map(tag.spectra.map((s) => [s.file, s]));
+  const byBase = new Map<string, (typeof tag.spectra)[number] | null>();
+  for (const s of tag.spectra) byBase.set(baseName(s.file), byBase.has(baseName(s.file)) ? null : s);
+  const out: IncomingFile[] = [];
+  const refused: string[] = [];
+  for (const f of files) {
+    const match = byPath.get(f.path) ?? byBase.get(baseName(f.path)) ?? null;
+    if (!match) {
+      out.push(f);
+      continue;
+    }
+    const hash = await contentHash(f.bytes);
+    if (hash !== match.sha256) refused.push(`${f.path}: not the packet's ${match.file} (the contents differ: SHA-256 ${hash.slice(0, 12)}… instead of ${match.sha256.slice(0, 12)}…); not added`);
+    else out.push({ path: match.file, bytes: f.bytes });
+  }
+  return { files: out, refused };
+}

@@ -19,7 +19,7 @@ export const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 /** Where the bundle lives: a cache inside node_modules (npm ci starts it afresh). */
 export const BUNDLE_DIR = join(ROOT, 'node_modules', '.cache', 'shiftmark-cli');
 /** Tools and the worker thread's entry, each one self-contained ES module. */
-const ENTRIES = { fit: 'src/cli/fit.ts', merge: 'src/cli/merge.ts', fitThread: 'src/cli/fitThread.ts' };
+const ENTRIES = { fit: 'src/cli/fit.ts', merge: 'src/cli/merge.ts', reconcile: 'src/cli/reconcile.ts', fitThread: 'src/cli/fitThread.ts' };
 const STAMP = 'source-hash.txt';
 
 /** Every file under `dir`, sorted, as paths relative to `root` with '/' separators. */
@@ -108,8 +108,8 @@ export async function ensureCli({ root = ROOT, outDir = BUNDLE_DIR, log = (s) =>
 if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
   const [mode, tool] = process.argv.slice(2);
   if (mode === 'run') {
-    if (tool !== 'fit' && tool !== 'merge') {
-      process.stderr.write(`error: unknown tool '${tool}' (fit or merge)\n`);
+    if (tool !== 'fit' && tool !== 'merge' && tool !== 'reconcile') {
+      process.stderr.write(`error: unknown tool '${tool}' (fit, merge or reconcile)\n`);
       process.exit(2);
     }
     await ensureCli();

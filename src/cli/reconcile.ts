@@ -9,7 +9,6 @@
  */
 import { readFileSync, writeFileSync } from 'node:fs';
 import { basename } from 'node:path';
-import { pathToFileURL } from 'node:url';
 import { parseCommandLine, UsageError } from './args';
 import { parseCosmologyOption } from './cosmologyOption';
 import { parseSession } from '../ui/persist/sessionFile';
@@ -146,13 +145,10 @@ function main(): number {
   return problems.length ? 2 : 0;
 }
 
-const runAsScript = process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href;
-if (runAsScript) {
-  try {
-    process.exitCode = main();
-  } catch (e) {
-    const err = e as Error;
-    process.stderr.write(`error: ${err.message}\n${e instanceof UsageError ? RECONCILE_USAGE + '\n' : ''}`);
-    process.exitCode = e instanceof UsageError ? 2 : 1;
-  }
+try {
+  process.exitCode = main();
+} catch (e) {
+  const err = e as Error;
+  process.stderr.write(`error: ${err.message}\n${e instanceof UsageError ? RECONCILE_USAGE + '\n' : ''}`);
+  process.exitCode = e instanceof UsageError ? 2 : 1;
 }

@@ -72,6 +72,17 @@ beforeAll(async () => {
 }, 120_000);
 
 describe('npm run reconcile', () => {
+  it('runs as package.json declares it (the bundled tool) and prints the same report as the TypeScript source', () => {
+    const args = [join(tmp, 'ana.json'), join(tmp, 'bo.json')];
+    const bundled = spawnSync('node', ['scripts/cli-bundle.mjs', 'run', 'reconcile', ...args], { cwd: ROOT, encoding: 'utf8' });
+    expect(bundled.status).toBe(0);
+    const direct = run(args);
+    // The report's first line holds the time it was made; the rest must match.
+    const body = (t: string) => t.split('\n').slice(1).join('\n');
+    expect(body(bundled.stdout)).toBe(body(direct.stdout));
+    expect(bundled.stdout).toContain('Ana / Bo: kappa');
+  }, 180_000);
+
   it('prints the statistics and writes the final catalogue, every verdict and the report', () => {
     const out = join(tmp, 'merged.csv');
     const r = run([join(tmp, 'ana.json'), join(tmp, 'bo.json'), '--out', out]);

@@ -144,7 +144,8 @@ export function fitBroadLine(r: RegionDef, data: LineFitData): BestLineFit | str
   for (const nBroad of [1, 2]) {
     const model = lineModel(r, nBroad, 20 * peak);
     const fit = fitGaussSum(model, startParams(model, nBroad, peak), data.x, data.y, data.w);
-    if (!fit.ok) continue;
+    // A component pushed to zero leaves its shift and width undetermined (singular covariance): that model is not a candidate.
+    if (!fit.ok || !fit.covariance.every(Number.isFinite) || model.components.some((c) => c.broad && !(fit.params[c.amp] > 0))) continue;
     const bic = fit.chi2 + model.lower.length * Math.log(fit.nPix);
     if (!best || bic < best.bic) best = { model, fit, nBroad, bic };
   }

@@ -22,6 +22,7 @@ import { nextGrade, type DecisionDraft } from './solution';
 import { flagByKey } from './flags';
 import { useReviewSession } from './useReviewSession';
 import { fmtNum, fmtRangeA, fmtZ } from '../format';
+import { QuasarPhysicsBox } from '../physics/QuasarPhysicsBox';
 
 /** Plain words for the engine's mask reasons (src/core/engine/artifacts.ts). */
 const MASK_REASON_WORDS: Record<string, string> = {
@@ -49,6 +50,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
   const rs = useReviewSession({ row, onDecision });
   const { solution, result, spec, naming } = rs;
   const [smoothingPx, setSmoothingPx] = useState(1);
+  const [troughsA, setTroughsA] = useState<[number, number][]>([]);
   const zInput = useRef<HTMLInputElement>(null);
   const lambdaInput = useRef<HTMLInputElement>(null);
   const noteInput = useRef<HTMLTextAreaElement>(null);
@@ -179,7 +181,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
             model={rs.model}
             z={solution ? solution.z : null}
             markers={markersFor(solution?.cls)}
-            skyRegions={SKY}
+            skyRegions={troughsA.length ? [...SKY, ...troughsA.map(([fromA, toA]) => ({ label: 'C IV trough', fromA, toA }))] : SKY}
             smoothingPx={smoothingPx}
             height={300}
             onFeatureClick={(a) => void rs.nameFeatureAt(a)}
@@ -258,6 +260,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
           <h3>Lines at this redshift</h3>
           {solution ? <LineTable lines={solution.lines} /> : <p className="muted">No redshift.</p>}
           <DerivedPanel z={solution?.z ?? null} cls={solution?.cls ?? 'unknown'} cosmology={cosmology} reviewed={!!decided} />
+          <QuasarPhysicsBox rowKey={row.key} z={solution?.z ?? null} cls={solution?.cls ?? 'unknown'} ready={spec.kind === 'ready'} cosmology={cosmology} onTroughs={setTroughsA} onUseZ={(z) => void rs.refitAt(z, 'refit')} />
         </>
       )}
     </section>

@@ -55,7 +55,8 @@ function writeSpectra(dir: string, n: number): string[] {
 /** Run the fitter as a user would and read its closing progress line (which reports peak memory). */
 function runFit(inputDir: string, out: string): { seconds: number; peakMb: number } {
   const t0 = performance.now();
-  const r = spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/fit.ts', inputDir, '--out', out], {
+  // As `npm run fit` runs it: the bundle (scripts/cli-bundle.mjs), built beforehand if stale.
+  const r = spawnSync(process.execPath, ['scripts/cli-bundle.mjs', 'run', 'fit', inputDir, '--out', out], {
     cwd: ROOT,
     encoding: 'utf8',
     stdio: ['ignore', 'ignore', 'pipe'],

@@ -1,8 +1,9 @@
 /**
  * Reader throughput: every file of the demo set (sample-spectra/, when present)
  * and of the real survey spectra (test/data/real-spectra/csv and fits), read
- * with readSpectrum from memory, repeated until each set has run for a while.
- * Prints spectra per second and MB per second per set.
+ * with readSpectra from memory (a multi-object file gives each of its
+ * spectra), repeated until each set has run for a while. Prints spectra per
+ * second and MB per second per set.
  *
  *   npx tsx scripts/bench-read.ts [--seconds 1]
  *
@@ -13,15 +14,18 @@ import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { gzipSync } from 'fflate';
-import { tryReadSpectrum } from '../src/core/io/readSpectrum';
+import { readSpectra } from '../src/core/io/readSpectra';
+import { SpectrumReadError } from '../src/core/types';
 import { listDemoFiles } from './demoSetPlugin';
 
 export interface ReadBenchRow {
   set: string;
   files: number;
+  /** Spectra (and failed rows) one pass gives: a multi-object file counts each of its rows. */
+  spectra: number;
   /** Total size of one pass over the set, bytes. */
   bytes: number;
-  /** Files that failed to read (each with its reason in `errors`, first 3 kept). */
+  /** Files or rows that failed to read (each with its reason in `errors`, first 3 kept). */
   failures: number;
   errors: string[];
   passes: number;
@@ -74,26 +78,30 @@ function runSet(s: FileSet, minSeconds: number): ReadBenchRow {
   const bytes = s.files.reduce((a, f) => a + f.bytes.length, 0);
   let failures = 0;
   const errors: string[] = [];
-  // One untimed pass: warms the JIT and counts failures once.
+  let spectra = 0;
+  // One untimed pass: warms the JIT and counts spectra and failures once.
   for (const f of s.files) {
-    const r = tryReadSpectrum(f.bytes, f.name);
-    if (!r.ok) {
-      failures++;
-      if (errors.length < 3) errors.push(r.error.message);
+    for (const item of readSpectra(f.bytes, f.name)) {
+      spectra++;
+      if (item instanceof SpectrumReadError) {
+        failures++;
+        if (errors.length < 3) errors.push(item.message);
+      }
     }
   }
   let passes = 0;
   const t0 = performance.now();
   let elapsedS = 0;
   do {
-    for (const f of s.files) tryReadSpectrum(f.bytes, f.name);
+    for (const f of s.files) readSpectra(f.bytes, f.name);
     passes++;
     elapsedS = (performance.now() - t0) / 1000;
   } while (elapsedS < minSeconds);
-  const n = passes * s.files.length;
+  const n = passes * spectra;
   return {
     set: s.set,
     files: s.files.length,
+    spectra,
     bytes,
     failures,
     errors,
@@ -114,13 +122,13 @@ export function benchRead(options: ReadBenchOptions = {}): ReadBenchRow[] {
     log('bench-read: no spectra found (sample-spectra/ or test/data/real-spectra/)');
     return [];
   }
-  log('set                              files      MB  failed  passes  spectra/s    MB/s');
+  log('set                              files spectra      MB  failed  passes  spectra/s    MB/s');
   const rows: ReadBenchRow[] = [];
   for (const s of sets) {
     const r = runSet(s, minSeconds);
     rows.push(r);
     log(
-      `${r.set.padEnd(32)} ${String(r.files).padStart(5)} ${(r.bytes / 1e6).toFixed(2).padStart(7)} ${String(r.failures).padStart(7)} ${String(r.passes).padStart(7)} ${r.spectraPerS.toFixed(0).padStart(10)} ${r.mbPerS.toFixed(1).padStart(7)}`,
+      `${r.set.padEnd(32)} ${String(r.files).padStart(5)} ${String(r.spectra).padStart(7)} ${(r.bytes / 1e6).toFixed(2).padStart(7)} ${String(r.failures).padStart(7)} ${String(r.passes).padStart(7)} ${r.spectraPerS.toFixed(0).padStart(10)} ${r.mbPerS.toFixed(1).padStart(7)}`,
     );
     for (const e of r.errors) log(`  failed: ${e}`);
   }

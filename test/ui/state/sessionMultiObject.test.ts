@@ -106,6 +106,33 @@ describe('Session with multi-object files', () => {
     db.close();
   });
 
+  it('a session file saved with its spectra brings the rows back elsewhere, each refitted as its own spectrum', async () => {
+    const db = await SessionDb.open(freshName());
+    const s = new Session(db, new PlateFitter());
+    await s.restore();
+    await s.addFiles([{ path: 'plate.fits', bytes: textBytes('plate 2') }]);
+    await until(settled(s));
+    await s.decide(s.getSnapshot().rows[1].key, makeDecision('plate.fits#2', { state: 'rejected', z: null, zErr: null }));
+    const text = await s.exportSession(true);
+
+    const db2 = await SessionDb.open(freshName());
+    const fitter = new PlateFitter();
+    const s2 = new Session(db2, fitter);
+    await s2.restore();
+    const planned = s2.planSessionImport(text);
+    if (!planned.ok) throw new Error(planned.problems.join('; '));
+    await s2.applyImport(planned.plan);
+    const rows = s2.getSnapshot().rows;
+    expect(rows.map((r) => [r.file, r.status, r.decision?.state ?? null])).toEqual([
+      ['plate.fits#1', 'ok', null],
+      ['plate.fits#2', 'failed', 'rejected'],
+    ]);
+    await s2.fitKeys([rows[0].key]);
+    expect(fitter.jobs).toEqual([{ file: 'plate.fits#1', firstLook: false, bytes: 'plate 2' }]);
+    db.close();
+    db2.close();
+  });
+
   it('a split file is forgotten with its last spectrum', async () => {
     const name = freshName();
     const db = await SessionDb.open(name);

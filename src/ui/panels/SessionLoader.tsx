@@ -42,8 +42,9 @@ export function SessionLoader({ onLoaded }: { onLoaded?: () => void }) {
       return;
     }
     if (snap.rows.length === 0) {
-      await apply(planned.plan, new Set());
+      // The packet's reviewer is set before the batch appears, so no decision is made under another name.
       await adoptPacket(planned.session.team);
+      await apply(planned.plan, new Set());
       return;
     }
     setMode('merge');
@@ -56,7 +57,6 @@ export function SessionLoader({ onLoaded }: { onLoaded?: () => void }) {
     if (!team) return;
     await session.setTeamTag(team).catch(() => undefined);
     await session.setReviewer(team.reviewer);
-    setStatus((s) => `${s ?? ''} Review packet of batch ${team.batchId} for ${team.reviewer}: ${team.spectra.length} spectra.`.trim());
   };
 
   const confirm = async () => {

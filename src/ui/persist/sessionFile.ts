@@ -121,6 +121,21 @@ function decodeValue(_key: string, value: unknown): unknown {
   return value;
 }
 
+/**
+ * A packet writes the bytes of a file once even when several of its spectra
+ * come from it (a multi-object file); the others, named with the same
+ * content hash in the team block, get the same bytes back here.
+ */
+function shareTeamBytes(entries: SessionFileEntry[], team: TeamTag): void {
+  const hashOf = new Map(team.spectra.map((s) => [s.id, s.sha256]));
+  const byHash = new Map<string, Uint8Array>();
+  for (const e of entries) if (e.bytes && hashOf.has(e.key)) byHash.set(hashOf.get(e.key)!, e.bytes);
+  for (const e of entries) if (!e.bytes && hashOf.has(e.key)) {
+    const b = byHash.get(hashOf.get(e.key)!);
+    if (b) e.bytes = b;
+  }
+}
+
 export function encodeSession(session: SessionFile): string {
   return JSON.stringify(thinResults(session), encodeValue);
 }
@@ -181,5 +196,6 @@ export function parseSession(text: string): ParsedSession {
     if (en.bytes instanceof Uint8Array) out.bytes = en.bytes;
     return out;
   });
+  if (r.team) shareTeamBytes(entries, r.team as TeamTag);
   return { ok: true, session: { ...(r as unknown as SessionFile), entries } };
 }

@@ -46,9 +46,14 @@ export async function buildPackets(session: Session, request: PacketRequest, now
   const files: BuiltPackets['files'] = [];
   for (const tag of plan.packets) {
     const entries: SessionFileEntry[] = [];
+    // Spectra of one multi-object file share its bytes: written once per packet, filled in on reading (sessionFile.ts).
+    const written = new Set<string>();
     for (const s of tag.spectra) {
       const e: SessionFileEntry = { key: s.id, file: s.file, order: order.get(s.id) ?? entries.length, result: (await session.getResult(s.id)) ?? null, decision: null };
-      if (request.withSpectra) e.bytes = bytesOf.get(s.id);
+      if (request.withSpectra && !written.has(s.sha256)) {
+        e.bytes = bytesOf.get(s.id);
+        written.add(s.sha256);
+      }
       entries.push(e);
     }
     const text = encodeSession({ format: SESSION_FORMAT, version: SESSION_VERSION, exportedAt: now, software: SOFTWARE_NAME_VERSION, reviewer: tag.reviewer, cosmology, entries, team: tag });

@@ -52,6 +52,18 @@ describe('buildPackets(session, request)', () => {
     expect(again.files.map((f) => f.spectra)).toEqual(built.files.map((f) => f.spectra));
   });
 
+  it('writes the bytes of a file shared by several spectra once, and reading gives them to each', async () => {
+    const { session } = await fittedSession();
+    const twin = { path: 'n1/e.txt', bytes: FILES[0].bytes }; // same contents as a.txt: same SHA-256
+    await session.addFiles([twin]);
+    await waitUntil(() => session.getSnapshot().rows.every((r) => r.status === 'ok'), 'fits');
+    const built = await buildPackets(session, { reviewers: ['Ana'], perSpectrum: 1, seed: 1, withSpectra: true });
+    const raw = JSON.parse(built.files[0].text) as { entries: { file: string; bytes?: unknown }[] };
+    expect(raw.entries.filter((e) => e.bytes !== undefined)).toHaveLength(4);
+    const parsed = parseSession(built.files[0].text);
+    expect(parsed.ok && parsed.session.entries.every((e) => e.bytes && e.bytes.length === FILES[0].bytes.length)).toBe(true);
+  });
+
   it('refuses too few reviewers with a plain message', async () => {
     const { session } = await fittedSession();
     await expect(buildPackets(session, { reviewers: ['Ana'], perSpectrum: 2, seed: 1, withSpectra: true })).rejects.toThrow(/need at least 2 reviewers/);

@@ -113,7 +113,7 @@ export function TeamView() {
       <section>
         <h3>Merge the reviewers&apos; work</h3>
         <div className="drop-buttons">
-          <button type="button" onClick={() => fileInput.current?.click()} data-testid="merge-load">
+          <button type="button" onClick={() => fileInput.current?.click()} disabled={!state.loaded} data-testid="merge-load">
             Add reviewers&apos; session files…
           </button>
           <input

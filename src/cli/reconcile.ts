@@ -1,6 +1,7 @@
 /**
  * `npm run reconcile -- a.json b.json ... --out merged.csv`: merge the
- * session files reviewers saved from their packets, print the agreement
+ * session files reviewers saved from their packets (or the catalogues they
+ * exported from them, CSV or JSON), print the agreement
  * statistics, and write the final catalogue, the long table of every verdict
  * (`merged-verdicts.csv`) and the report (`merged-report.txt`). The browser's
  * saved merge work (with the arbiter's settlements) is read too. A file that
@@ -14,7 +15,7 @@ import { parseCosmologyOption } from './cosmologyOption';
 import { parseSession } from '../ui/persist/sessionFile';
 import type { FitResult } from '../core/types';
 import { SOFTWARE_NAME, SOFTWARE_VERSION } from '../core/version';
-import { buildTeamExport, checkRule, DEFAULT_TOLERANCE, mergeWhatFits, TeamFileError, verdictSetFromSession, type Settlement, type TeamFormat, type VerdictSet } from '../core/team';
+import { buildTeamExport, checkRule, DEFAULT_TOLERANCE, isTeamCatalogue, mergeWhatFits, TeamFileError, verdictSetFromCatalogue, verdictSetFromSession, type Settlement, type TeamFormat, type VerdictSet } from '../core/team';
 import { parseMergeWork } from '../ui/team/mergeWork';
 
 export const RECONCILE_USAGE = `usage: npm run reconcile -- <session files...> [--out merged.csv] [options]
@@ -24,8 +25,9 @@ export const RECONCILE_USAGE = `usage: npm run reconcile -- <session files...> [
   --tolerance X       redshifts agree when |dz|/(1+z) < X (default ${DEFAULT_TOLERANCE})
   --cosmology SPEC    e.g. h0=70,om=0.3,ok=0,or=0 (default flat h0=70, om=0.3)
   --help              this text
-Inputs are session files saved from review packets, or a merge saved from the
-browser (it brings the arbiter's settlements).`;
+Inputs are session files saved from review packets, catalogues exported (CSV
+or JSON) from such sessions, or a merge saved from the browser (it brings the
+arbiter's settlements).`;
 
 const OPTIONS = { out: 'string', tolerance: 'string', cosmology: 'string', help: 'boolean' } as const;
 
@@ -96,6 +98,19 @@ function main(): number {
     if (work.isMergeWork) {
       problems.push(`${name}: ${work.problems.join('; ')}`);
       continue;
+    }
+    if (isTeamCatalogue(text)) {
+      try {
+        const fromExport = verdictSetFromCatalogue(text, name);
+        if (fromExport) {
+          sets.push(fromExport);
+          continue;
+        }
+      } catch (e) {
+        if (!(e instanceof TeamFileError)) throw e;
+        problems.push(e.message);
+        continue;
+      }
     }
     const parsed = parseSession(text);
     if (!parsed.ok) {

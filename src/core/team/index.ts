@@ -10,4 +10,5 @@ export { consensusOf, latestSettlements, type Consensus, type Settlement } from 
 export { teamStatistics, CLASSES, type TeamStatistics, type PairStats, type ReviewerStats, type Rate } from './statistics';
 export { teamReportText } from './report';
 export { FINAL_COLUMNS, finalCatalogueRows, verdictRows } from './tables';
+export { verdictSetFromCatalogue, isTeamCatalogue, TEAM_META_KEY } from './fromCatalogue';
 export { buildTeamExport, TEAM_FORMATS, type TeamFormat, type TeamExport, type TeamExportInput } from './exportFiles';

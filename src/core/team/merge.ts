@@ -20,6 +20,8 @@ export interface MergedBatch {
   /** Every spectrum any file names, in order of first appearance. */
   spectra: TeamSpectrum[];
   verdicts: MergedVerdict[];
+  /** Exported catalogue rows by spectrum id, from merged catalogue exports (see fromCatalogue.ts). */
+  autoRows: Record<string, Readonly<Record<string, string>>>;
 }
 
 export function mergeVerdictSets(sets: readonly VerdictSet[]): MergedBatch {
@@ -58,6 +60,7 @@ export function mergeVerdictSets(sets: readonly VerdictSet[]): MergedBatch {
     sources: sets.map((s) => ({ name: s.source, reviewer: s.reviewer, verdicts: s.verdicts.length, outside: s.outside })),
     spectra: [...spectra.values()].map((x) => x.s),
     verdicts: all.map((v) => ({ ...v, counted: counted.has(v) })),
+    autoRows: Object.assign({}, ...sets.map((s) => s.autoRows ?? {}).reverse()),
   };
 }
 

@@ -13,6 +13,8 @@ import type { Consensus, Settlement } from './consensus';
 import type { MergedBatch } from './merge';
 
 export const FINAL_COLUMNS: readonly ColumnDef[] = [...CATALOGUE_COLUMNS, ...CONSENSUS_COLUMNS];
+/** Cells that come from the fit (automatic and physics groups). */
+const AUTOMATIC_NAMES = CATALOGUE_COLUMNS.filter((c) => c.group !== 'review' && c.group !== 'derived').map((c) => c.name);
 
 function format(columns: readonly ColumnDef[], values: Record<string, CellValue>): Record<string, string> {
   const row: Record<string, string> = {};
@@ -28,10 +30,14 @@ export function finalCatalogueRows(merged: MergedBatch, consensus: readonly Cons
   const files = new Map(merged.spectra.map((s) => [s.id, s.file]));
   return consensus.map((c) => {
     const file = files.get(c.id) ?? c.id;
-    const result = resultOf(c.id) ?? failedResult(file, 'no fit result in the merged files');
+    const fitted = resultOf(c.id);
+    const exported = merged.autoRows[c.id];
+    const result = fitted ?? failedResult(file, 'no fit result in the merged files');
     // The final verdict is paired with the fit under the fit's file name.
     const final = c.final ? { ...c.final, file: result.file } : undefined;
-    const base = catalogueRow(result, final, cosmology);
+    let base = catalogueRow(result, final, cosmology);
+    // Without a fit, a reviewer's exported row gives the automatic cells as that export wrote them.
+    if (!fitted && exported) base = { ...base, ...Object.fromEntries(AUTOMATIC_NAMES.map((n) => [n, exported[n] ?? ''])) };
     const consensusCells = format(CONSENSUS_COLUMNS, { n_reviewers: c.verdicts.length, agreement: c.state, settled_by: c.settledBy });
     return { ...base, ...consensusCells };
   });

@@ -47,6 +47,8 @@ export interface VerdictSet {
   verdicts: Verdict[];
   /** Decisions in the file on spectra outside its packet (not counted). */
   outside: number;
+  /** From a catalogue export: each spectrum's row as exported (its automatic cells stand in for a missing fit). */
+  autoRows?: Record<string, Readonly<Record<string, string>>>;
 }
 
 /** A file the team step cannot use, or that belongs to another batch; the message names the file(s). */

@@ -17,7 +17,7 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
   const run = async () => {
     setStatus('Building the table…');
     try {
-      const built = await buildExport({ rows: snap.rows, getResult: (k) => session.getResult(k) }, format, snap.cosmology, scope);
+      const built = await buildExport({ rows: snap.rows, getResult: (k) => session.getResult(k), team: session.teamTag() }, format, snap.cosmology, scope);
       const f = EXPORT_FORMATS.find((x) => x.id === format)!;
       const what = format === 'lines-csv' ? 'lines' : 'catalogue';
       downloadBlob(built.data as BlobPart, `shiftmark-${what}-${stamp()}.${f.ext}`, f.mime);

@@ -18,6 +18,8 @@ import {
   type TableRow,
 } from '../../core/table';
 import { SOFTWARE_VERSION } from '../version';
+import { TEAM_META_KEY } from '../../core/team/fromCatalogue';
+import type { TeamTag } from '../../core/team/teamTag';
 import { ENGINE_VERSION } from '../../core/engine/version';
 
 export type ExportFormat = 'csv' | 'csv-plain' | 'json' | 'fits' | 'votable' | 'lines-csv';
@@ -37,6 +39,8 @@ export interface ExportSource {
   /** File keys in batch order with their decisions. */
   rows: readonly { key: string; decision?: ReviewDecision }[];
   getResult: (key: string) => Promise<FitResult | undefined>;
+  /** The review packet the batch came from: CSV and JSON exports carry it, so a team merge can take them. */
+  team?: TeamTag | null;
 }
 
 export interface BuiltExport {
@@ -73,6 +77,8 @@ export async function buildExport(
     lines.push(lineRows(result));
   }
   const meta: ExportMeta = { software: 'Shiftmark', version: SOFTWARE_VERSION, templateSet: templateSet || 'none (no spectrum fitted)', cosmology, createdAt, extra: { engine: ENGINE_VERSION } };
+  // The packet rides in the CSV header block and the JSON meta only (a FITS card or VOTable INFO is no place for it).
+  if (source.team && (format === 'csv' || format === 'json')) meta.extra = { ...meta.extra, [TEAM_META_KEY]: JSON.stringify(source.team) };
   const cols = CATALOGUE_COLUMNS;
   let data: string | Uint8Array;
   let lineCount = 0;

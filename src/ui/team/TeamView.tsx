@@ -114,14 +114,14 @@ export function TeamView() {
         <h3>Merge the reviewers&apos; work</h3>
         <div className="drop-buttons">
           <button type="button" onClick={() => fileInput.current?.click()} disabled={!state.loaded} data-testid="merge-load">
-            Add reviewers&apos; session files…
+            Add reviewers&apos; session files or catalogue exports…
           </button>
           <input
             ref={fileInput}
             type="file"
             multiple
             hidden
-            accept=".json,application/json"
+            accept=".json,.csv,application/json,text/csv"
             aria-label="Reviewer session files"
             onChange={(e) => {
               if (e.currentTarget.files?.length) void readFiles(e.currentTarget.files);

@@ -12,6 +12,8 @@ import {
   teamStatistics,
   TeamFileError,
   verdictSetFromSession,
+  verdictSetFromCatalogue,
+  isTeamCatalogue,
   type Consensus,
   type MergedBatch,
   type Settlement,
@@ -94,6 +96,18 @@ export function useMergeWork(session: Session): MergeState {
           refused.push(`${f.name}: ${asWork.problems.join('; ')}`);
           continue;
         } else {
+          // A catalogue exported from a packet session carries its team block; anything else is tried as a session file.
+          let fromExport: VerdictSet | null = null;
+          try {
+            fromExport = isTeamCatalogue(f.text) ? verdictSetFromCatalogue(f.text, f.name) : null;
+          } catch (e) {
+            if (!(e instanceof TeamFileError)) throw e;
+            refused.push(e.message);
+            continue;
+          }
+          if (fromExport) incoming = [fromExport];
+        }
+        if (!asWork.ok && !incoming.length) {
           const parsed = parseSession(f.text);
           if (!parsed.ok) {
             refused.push(`${f.name}: ${parsed.problems.join('; ')}`);

@@ -6,6 +6,8 @@ import { teamStatistics } from '../../../src/core/team/statistics';
 import { teamReportText } from '../../../src/core/team/report';
 import { DEFAULT_RULE } from '../../../src/core/team/agreement';
 import { cohenKappa } from '../../../src/core/team/kappa';
+import { finalCatalogueRows, verdictRows } from '../../../src/core/team/tables';
+import { DEFAULT_COSMOLOGY } from '../../../src/core/cosmology';
 import { decision, hashOf, session, tag } from './fixtures';
 
 const ana = () =>
@@ -86,5 +88,35 @@ describe('consensus and statistics of a merged batch', () => {
     expect(merged.verdicts).toHaveLength(6);
     expect(merged.verdicts.filter((v) => !v.counted).map((v) => v.source)).toEqual(['bo.json']);
     expect(consensusOf(merged, [], DEFAULT_RULE)[1].state).toBe('agree');
+  });
+});
+
+describe('verdictRows and finalCatalogueRows', () => {
+  it('lists every verdict and settlement, marks the one the catalogue carries, and fills the consensus columns', () => {
+    const merged = mergeVerdictSets([ana(), bo()]);
+    const st = [
+      { id: 'b.fits', arbiter: 'Cy', settledAt: '2026-01-03T00:00:00Z', picked: 'Ana', decision: decision('b.fits', 'Ana', 'galaxy', 0.3) },
+      { id: 'b.fits', arbiter: 'Cy', settledAt: '2026-01-04T00:00:00Z', picked: null, decision: decision('b.fits', 'Cy', 'galaxy', 0.5) },
+    ];
+    const cons = consensusOf(merged, st, DEFAULT_RULE);
+    const rows = verdictRows(merged, cons, st);
+    // 5 reviewer verdicts and 2 settlements; the later settlement counts.
+    expect(rows).toHaveLength(7);
+    expect(rows.filter((r) => r.spectrum_id === 'b.fits').map((r) => [r.role, r.reviewer, r.counted, r.in_final])).toEqual([
+      ['reviewer', 'Ana', 'true', 'false'],
+      ['reviewer', 'Bo', 'true', 'false'],
+      ['arbiter', 'Cy', 'false', 'false'],
+      ['arbiter', 'Cy', 'true', 'true'],
+    ]);
+    // Each spectrum with a final verdict has exactly one row in the final catalogue's place.
+    for (const id of ['a.fits', 'b.fits', 'c.fits']) expect(rows.filter((r) => r.spectrum_id === id && r.in_final === 'true')).toHaveLength(1);
+    const final = finalCatalogueRows(merged, cons, () => undefined, DEFAULT_COSMOLOGY);
+    expect(final.map((r) => [r.file, r.n_reviewers, r.agreement, r.settled_by, r.final_z])).toEqual([
+      ['a.fits', '2', 'agree', '', '1.500000'],
+      ['b.fits', '2', 'disagree', 'Cy', '0.500000'],
+      ['c.fits', '1', 'single', '', '0.000000'],
+    ]);
+    // Without a fit or an exported row, the automatic columns say why.
+    expect(final[0].error).toBe('no fit result in the merged files');
   });
 });

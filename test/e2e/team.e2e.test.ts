@@ -3,13 +3,14 @@
  * dirs): the lead loads the demo set and makes packets for two reviewers;
  * each reviewer opens their packet on the start page, disagrees on purpose
  * on a few spectra and accepts the rest, and saves the session; the lead
- * merges both (a file of another batch is refused by name), settles every
+ * merges both (a file of another batch is refused by name, as is a spectrum
+ * file with other contents dropped into a packet session), settles every
  * disagreement (by key, and one with a decision of their own), reloads, and
  * exports. The counts and Cohen's kappa are worked out here from the saved
  * session files alone.
  */
 import { readFileSync, writeFileSync } from 'node:fs';
-import { join } from 'node:path';
+import { basename, dirname, join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it, onTestFailed } from 'vitest';
 import type { BrowserContext, Download, Page } from 'playwright-core';
 import { parseCatalogueCsv } from '../../src/core/table/csv';
@@ -103,7 +104,7 @@ describe.skipIf(!browserAvailable)('team review in Chromium: packets, two review
   });
 
   /** Open a packet on the start page, disagree on purpose, accept the rest in one step, save the session. */
-  async function review(page: Page, packet: string, reviewer: string, plan: ('reject' | 'second')[]): Promise<{ path: string; saved: SavedSession }> {
+  async function review(page: Page, packet: string, reviewer: string, plan: ('reject' | 'second')[], wrongFile?: string): Promise<{ path: string; saved: SavedSession }> {
     await page.goto(url);
     await page.getByTestId('load-session').waitFor();
     await page.getByLabel('Session file').setInputFiles(packet);
@@ -123,6 +124,12 @@ describe.skipIf(!browserAvailable)('team review in Chromium: packets, two review
     await page.getByTestId('bulk-done').waitFor();
     await expect.poll(() => page.getByTestId('review-counts').textContent()).toMatch(/^(\d+) of \1 reviewed/);
     await page.keyboard.press('b');
+    if (wrongFile) {
+      // A file named like one of the packet's spectra but with other contents is refused by name.
+      await page.getByLabel('Spectrum files').setInputFiles(wrongFile);
+      await expect.poll(() => page.getByTestId('intake-notices').textContent()).toContain(`${basename(wrongFile)}: not the packet's`);
+      await expect.poll(() => page.getByTestId('review-counts').textContent()).toMatch(/^(\d+) of \1 reviewed/);
+    }
     const [d] = await downloads(page, 1, () => page.getByRole('button', { name: 'Save session (results and decisions)' }).click());
     const path = join(work, `${reviewer}.json`);
     await d.saveAs(path);
@@ -148,7 +155,11 @@ describe.skipIf(!browserAvailable)('team review in Chromium: packets, two review
 
     // 2. Two reviewers in their own profiles, with deliberate disagreements on the first spectra.
     const ana = await review(await profile('ana'), packetPaths.Ana, 'Ana', ['reject', 'second']);
-    const bo = await review(await profile('bo'), packetPaths.Bo, 'Bo', ['second', 'reject', 'reject']);
+    const firstFile = JSON.parse(readFileSync(packetPaths.Bo, 'utf8')).team.spectra.find((x: { file: string }) => !x.file.includes('#')).file as string;
+    const wrong = join(tempDir('team-wrong'), basename(firstFile));
+    dirs.push(dirname(wrong));
+    writeFileSync(wrong, 'wavelength,flux\n4000,1\n4001,2\n4002,3\n');
+    const bo = await review(await profile('bo'), packetPaths.Bo, 'Bo', ['second', 'reject', 'reject'], wrong);
     expect(ana.saved.team.reviewer).toBe('Ana');
     expect(bo.saved.team.batchId).toBe(ana.saved.team.batchId);
 

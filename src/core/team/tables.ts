@@ -61,14 +61,24 @@ function verdictCells(d: ReviewDecision): Record<string, CellValue> {
 export function verdictRows(merged: MergedBatch, consensus: readonly Consensus[], settlements: readonly Settlement[]): TableRow[] {
   const files = new Map(merged.spectra.map((s) => [s.id, s.file]));
   const byId = new Map(consensus.map((c) => [c.id, c]));
+  const group = <T extends { id: string }>(items: readonly T[]) => {
+    const m = new Map<string, T[]>();
+    for (const x of items) {
+      const list = m.get(x.id);
+      if (list) list.push(x);
+      else m.set(x.id, [x]);
+    }
+    return m;
+  };
+  const verdictsOf = group(merged.verdicts);
+  const settlementsOf = group(settlements);
   const rows: TableRow[] = [];
   for (const s of merged.spectra) {
     const c = byId.get(s.id);
     const state = c?.state ?? 'none';
     // The verdict the final catalogue carries: the settlement's, else the first counted one (consensus.ts).
     const takenVerdict = c && !c.settlement && c.final ? c.verdicts[0] : undefined;
-    for (const v of merged.verdicts) {
-      if (v.id !== s.id) continue;
+    for (const v of verdictsOf.get(s.id) ?? []) {
       rows.push(
         format(VERDICT_COLUMNS, {
           file: files.get(s.id) ?? s.id,
@@ -83,8 +93,7 @@ export function verdictRows(merged: MergedBatch, consensus: readonly Consensus[]
         }),
       );
     }
-    for (const st of settlements) {
-      if (st.id !== s.id) continue;
+    for (const st of settlementsOf.get(s.id) ?? []) {
       rows.push(
         format(VERDICT_COLUMNS, {
           file: files.get(s.id) ?? s.id,

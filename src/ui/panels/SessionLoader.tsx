@@ -107,6 +107,12 @@ export function SessionLoader({ onLoaded }: { onLoaded?: () => void }) {
           <p>
             {waiting.name} holds {waiting.entries} spectra; this browser has {snap.rows.length}.
           </p>
+          {waiting.team && (
+            <p className="caution" data-testid="packet-hint">
+              This is a review packet for {waiting.team.reviewer}. To review it as {waiting.team.reviewer}, choose Replace (or open it in a browser
+              profile of its own); merged into this batch it is only more spectra.
+            </p>
+          )}
           <label className="radio">
             <input type="radio" name="load-mode" checked={mode === 'merge'} onChange={() => setMode('merge')} /> Merge: add its {plan.newEntries.length} new spectra and
             its decisions to the batch here

@@ -91,7 +91,9 @@ export function useMergeWork(session: Session): MergeState {
         let incoming: VerdictSet[] = [];
         if (asWork.ok) {
           incoming = asWork.work.sets;
-          settlements = [...settlements, ...asWork.work.settlements];
+          // A settlement already here (the same merge loaded again) is not listed twice.
+          const have = new Set(settlements.map((x) => `${x.id}\u0000${x.arbiter}\u0000${x.settledAt}`));
+          settlements = [...settlements, ...asWork.work.settlements.filter((x) => !have.has(`${x.id}\u0000${x.arbiter}\u0000${x.settledAt}`))];
         } else if (asWork.isMergeWork) {
           refused.push(`${f.name}: ${asWork.problems.join('; ')}`);
           continue;

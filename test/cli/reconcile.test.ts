@@ -13,7 +13,9 @@ import { join, resolve } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { fitBytes } from '../../src/core/pipeline';
 import { DEFAULT_COSMOLOGY } from '../../src/core/cosmology';
-import { planPackets, type TeamTag } from '../../src/core/team';
+import { planPackets, verdictSetFromSession, type TeamTag } from '../../src/core/team';
+import { parseSession } from '../../src/ui/persist/sessionFile';
+import { MERGE_WORK_FORMAT, MERGE_WORK_VERSION } from '../../src/ui/team/mergeWork';
 import { encodeSession, SESSION_FORMAT, SESSION_VERSION, type SessionFile } from '../../src/ui/persist/sessionFile';
 import { parseCatalogueCsv } from '../../src/core/table';
 import type { FitResult, ReviewDecision, SpectrumClass } from '../../src/core/types';
@@ -120,6 +122,37 @@ describe('npm run reconcile', () => {
     const json = JSON.parse(readFileSync(join(tmp, 'partial.json'), 'utf8'));
     expect(json.rows).toHaveLength(4);
     expect(json.rows.every((x: { agreement: string }) => x.agreement === 'single')).toBe(true);
+  }, 60_000);
+
+  it("reads the browser's saved merge with its settlements, taking only the fits from the reviewers' files named in it", () => {
+    const setOf = (name: string) => {
+      const parsed = parseSession(readFileSync(join(tmp, name), 'utf8'));
+      if (!parsed.ok) throw new Error(parsed.problems.join('; '));
+      return verdictSetFromSession(parsed.session, name);
+    };
+    const [ana, bo] = [setOf('ana.json'), setOf('bo.json')];
+    const first = bo.verdicts[0];
+    const work = {
+      format: MERGE_WORK_FORMAT,
+      version: MERGE_WORK_VERSION,
+      savedAt: '2026-02-02T00:00:00.000Z',
+      arbiter: 'Cy',
+      tolerance: 0.003,
+      sets: [ana, bo],
+      settlements: [{ id: first.id, arbiter: 'Cy', settledAt: '2026-02-02T00:00:00.000Z', picked: 'Bo', decision: first.decision }],
+    };
+    writeFileSync(join(tmp, 'merge.json'), JSON.stringify(work));
+    const out = join(tmp, 'from-work.csv');
+    const r = run([join(tmp, 'merge.json'), join(tmp, 'ana.json'), join(tmp, 'bo.json'), '--out', out]);
+    expect(r.stderr).not.toMatch(/refused/);
+    expect(r.status).toBe(0);
+    expect(r.stdout).toContain('Settled by an arbiter: 1; disagreements still open: 1');
+    const final = parseCatalogueCsv(readFileSync(out, 'utf8'));
+    expect(final.rows[0].settled_by).toBe('Cy');
+    expect(final.rows[0].reviewer).toBe('Bo');
+    // The fits came from the session files: automatic columns filled, no error.
+    expect(final.rows.every((x) => x.error === '' && x.z !== '')).toBe(true);
+    expect(parseCatalogueCsv(readFileSync(join(tmp, 'from-work-verdicts.csv'), 'utf8')).rows).toHaveLength(9);
   }, 60_000);
 
   it('writes FITS tables named CATALOGUE and VERDICTS, and checks its options', () => {

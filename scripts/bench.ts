@@ -8,10 +8,13 @@
 import { benchRead } from './bench-read';
 import { benchCli } from './bench-cli';
 import { benchStartup } from './bench-startup';
+import { benchFit } from './bench-fit';
 
 const big = process.argv.includes('--big');
 console.log('== reader throughput ==');
 benchRead({ minSeconds: 1 });
+console.log('\n== engine, one thread (fitSpectrum on 1,000 simulated spectra) ==');
+benchFit(1000, 1);
 console.log('\n== headless fitter ==');
 benchCli({ n: 1000, big });
 await benchStartup();

@@ -88,6 +88,28 @@ describe('screenAgainstPacket(tag, files)', () => {
   });
 });
 
+describe('screenAgainstPacket with spectra of a multi-object file', () => {
+  it('matches the file itself (name without #n, the same hash for all its spectra)', async () => {
+    const plate = textBytes('a plate of many fibres');
+    const hash = createHash('sha256').update(plate).digest('hex');
+    const tag = {
+      version: 1,
+      batchId: '0123456789abcdef',
+      batchSize: 2,
+      seed: 1,
+      perSpectrum: 1,
+      reviewers: ['Ana'],
+      reviewer: 'Ana',
+      madeAt: '2026-03-01T00:00:00.000Z',
+      spectra: [1, 2].map((n) => ({ id: `k#${n}`, file: `obs/plate.fits#${n}`, sha256: hash })),
+    };
+    const ok = await screenAgainstPacket(tag, [{ path: 'plate.fits', bytes: plate }]);
+    expect(ok.files.map((f) => f.path)).toEqual(['obs/plate.fits']);
+    const bad = await screenAgainstPacket(tag, [{ path: 'plate.fits', bytes: textBytes('another plate') }]);
+    expect(bad.refused[0]).toMatch(/^plate\.fits: not the packet's obs\/plate\.fits/);
+  });
+});
+
 describe('Session team block', () => {
   it('is written into saved sessions and read back after a reload', async () => {
     const { session, db, name } = await fittedSession();

@@ -10,7 +10,6 @@ import { fitBytes, fitOrSplit, failedResult } from '../core/pipeline';
 import { automaticRow, lineRows } from '../core/table';
 import type { CosmologyParams, FitResult } from '../core/types';
 import { FitWorkspace } from '../core/engine/workspace';
-import { withQuasarMeasurement } from '../core/physics/attach';
 
 /** This thread's engine workspace: FFT plans and template transforms reused from file to file. */
 const workspace = new FitWorkspace();
@@ -61,7 +60,6 @@ parentPort!.on('message', (job: FitJob) => {
     } else {
       result = fitBytes(bytes, job.name, { workspace });
     }
-    result = withQuasarMeasurement(result, bytes, job.name);
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     const reason = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder' : `cannot read file (${code ?? (e as Error).message})`;

@@ -14,6 +14,7 @@ import { SpectrumReadError, type FitResult, type Spectrum } from './types';
 import { openSpectraFile, noTargetsError, rowOfId, spectrumId, spectrumOfOpened, type OpenedFile } from './io/readSpectra';
 import { fitSpectrum, type FitOptions } from './engine';
 import { failedResult } from './failedResult';
+import { safeMeasureQuasar } from './physics/attach';
 
 export { failedResult };
 
@@ -37,11 +38,16 @@ function fitOpened(opened: OpenedFile, id: string, options?: FitOptions): FitRes
     if (facts) failed.input.meta = Object.fromEntries(Object.entries(facts).filter(([, v]) => v !== undefined));
     return failed;
   }
+  let result: FitResult;
   try {
-    return fitSpectrum(spectrum, options);
+    result = fitSpectrum(spectrum, options);
   } catch (e) {
     return failedResult(id, `${id}: internal fitting error: ${(e as Error)?.message ?? e}`);
   }
+  // Quasars fitted at z > 0 get their physics (core/physics) here, on the spectrum already read,
+  // so the browser worker, the CLI thread and in-process callers give one and the same row.
+  if (result.status === 'ok' && result.class === 'qso' && result.z > 0) result = { ...result, quasar: safeMeasureQuasar(spectrum, result.z) };
+  return result;
 }
 
 /**

@@ -16,7 +16,7 @@ import { maskRanges } from '../core/physics/maskRanges';
 /** This worker's engine workspace: FFT plans and template transforms reused from fit to fit. */
 const workspace = new FitWorkspace();
 import { LruCache } from './lruCache';
-import { withQuasarMeasurement, safeMeasureQuasar } from '../core/physics/attach';
+import { safeMeasureQuasar } from '../core/physics/attach';
 import type { QuasarMeasurement } from '../core/physics/types';
 
 /** A catalogue line a located feature could be (the engine's own answer type). */
@@ -98,14 +98,13 @@ export function createFitWorkerApi(cacheEntries = SPECTRUM_CACHE_ENTRIES): FitWo
   return {
     cache,
     fitFile(bytes, file) {
-      const result = withQuasarMeasurement(fitBytes(bytes, file, { workspace }), bytes, file);
+      const result = fitBytes(bytes, file, { workspace }); // quasar physics included (core/pipeline.ts)
       return transfer(result, fitResultBuffers(result));
     },
     fitOrSplit(bytes, file) {
       const work = fitOrSplit(bytes, file, { workspace });
       if (work.kind !== 'fitted') return work;
-      const fitted = { ...work, result: withQuasarMeasurement(work.result, bytes, file) };
-      return transfer(fitted, fitResultBuffers(fitted.result));
+      return transfer(work, fitResultBuffers(work.result));
     },
     openSpectrum(key, file, bytes) {
       let spectrum = cache.get(key);

@@ -7,6 +7,7 @@
  * beside its strided fast version so the two are read together.
  */
 import { choleskySolve } from '../../numeric/cholesky';
+import { gaussOfSquare } from './gaussTable';
 
 export interface ContinuumFit {
   /** Polynomial coefficients in (x - xRef): flux unit, flux unit / A, flux unit / A^2. */
@@ -160,13 +161,13 @@ export function filterAt(
   let sgg = 0;
   for (let j = k; j >= 0 && c - xA[j] <= 4 * sigmaA; j--) {
     const t = (xA[j] - c) / sigmaA;
-    const g = Math.exp(-0.5 * t * t);
+    const g = gaussOfSquare(t * t);
     srg += w[j] * r[j] * g;
     sgg += w[j] * g * g;
   }
   for (let j = k + 1; j < xA.length && xA[j] - c <= 4 * sigmaA; j++) {
     const t = (xA[j] - c) / sigmaA;
-    const g = Math.exp(-0.5 * t * t);
+    const g = gaussOfSquare(t * t);
     srg += w[j] * r[j] * g;
     sgg += w[j] * g * g;
   }

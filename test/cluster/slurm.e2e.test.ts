@@ -12,10 +12,12 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { missingPrograms, startMiniSlurm, type MiniSlurm } from './miniSlurm';
 import { parseCatalogueCsv } from '../../src/core/table';
+// @ts-expect-error plain JavaScript module without type declarations
+import { sourceHash } from '../../scripts/cli-bundle.mjs';
 
 const ROOT = resolve(__dirname, '../..');
 const ARRAY_TASKS = 4;
@@ -56,18 +58,28 @@ describe.skipIf(missing.length > 0)('the README job array under a real one-node 
     await cluster.stop();
   }, 60_000);
 
-  it('fits the demo set in 4 array tasks whose merged table equals one single-process run, row by row', async () => {
+  /**
+   * One submission of the README script and one single-process run to compare
+   * with. Returns both tables, and whether the sources stayed the same from
+   * the submission to the end (npm run fit rebuilds its bundle whenever they
+   * change, so an edit in between, e.g. by someone else working in the same
+   * tree, would compare two programs).
+   */
+  async function submitAndCompare(attempt: number) {
     const c = cluster!;
+    const hashBefore = sourceHash(ROOT);
     const script = readmeJobScript(readFileSync(join(ROOT, 'README.md'), 'utf8'));
     expect(script).toMatch(/^#!\/bin\/bash\n/);
-    const scriptPath = join(c.dir, 'fit-array.sh');
+    const work = join(c.dir, `attempt-${attempt}`);
+    mkdirSync(work);
+    const scriptPath = join(work, 'fit-array.sh');
     writeFileSync(scriptPath, script, { mode: 0o755 });
-    const tables = join(c.dir, 'tables');
+    const tables = join(work, 'tables');
     const spectra = join(ROOT, 'sample-spectra');
     // As the README says: submitted from the Shiftmark folder; the array size, the folders and the
     // task logs given on the command line (sbatch options override the script's #SBATCH lines).
     jobId = c
-      .run('sbatch', ['--parsable', `--array=1-${ARRAY_TASKS}`, `--output=${join(c.dir, 'task-%A_%a.out')}`, `--export=ALL,SPECTRA=${spectra},TABLES=${tables}`, scriptPath], { cwd: ROOT })
+      .run('sbatch', ['--parsable', `--array=1-${ARRAY_TASKS}`, `--output=${join(work, 'task-%A_%a.out')}`, `--export=ALL,SPECTRA=${spectra},TABLES=${tables}`, scriptPath], { cwd: ROOT })
       .trim()
       .split(';')[0];
     expect(jobId).toMatch(/^\d+$/);
@@ -77,7 +89,7 @@ describe.skipIf(missing.length > 0)('the README job array under a real one-node 
       if (Date.now() - t0 > WAIT_LIMIT_MS) throw new Error(`the array job ${jobId} did not finish within ${WAIT_LIMIT_MS / 1000} s\n${c.logs()}`);
       await new Promise((r) => setTimeout(r, 1000));
     }
-    const taskLogs = readdirSync(c.dir).filter((f) => f.startsWith('task-')).map((f) => `--- ${f}\n${readFileSync(join(c.dir, f), 'utf8')}`).join('\n');
+    const taskLogs = readdirSync(work).filter((f) => f.startsWith('task-')).map((f) => `--- ${f}\n${readFileSync(join(work, f), 'utf8')}`).join('\n');
     // Every task ran and ended with status 0 (scontrol keeps finished jobs for MinJobAge).
     const records = c.run('scontrol', ['-o', 'show', 'job', jobId]).trim().split('\n');
     const tasks = records.map((r) => ({ id: /ArrayTaskId=(\d+)/.exec(r)?.[1], state: /JobState=(\w+)/.exec(r)?.[1], exit: /ExitCode=([\d:]+)/.exec(r)?.[1] }));
@@ -85,22 +97,32 @@ describe.skipIf(missing.length > 0)('the README job array under a real one-node 
     for (const t of tasks) expect([t.state, t.exit], `task ${t.id}\n${taskLogs}`).toEqual(['COMPLETED', '0:0']);
     expect(readdirSync(tables).sort()).toEqual(['shard-1.csv', 'shard-2.csv', 'shard-3.csv', 'shard-4.csv']);
 
-    const merged = join(c.dir, 'catalogue.csv');
+    const merged = join(work, 'catalogue.csv');
     const m = npm(['merge', '--', '--out', merged, ...[1, 2, 3, 4].map((i) => join(tables, `shard-${i}.csv`))]);
     expect(m.status, m.stderr).toBe(0);
-    const single = join(c.dir, 'single.csv');
+    const single = join(work, 'single.csv');
     const f = npm(['fit', '--', spectra, '--out', single, '--quiet']);
     expect(f.status, f.stderr).toBe(0);
+    return {
+      merged: parseCatalogueCsv(readFileSync(merged, 'utf8')),
+      single: parseCatalogueCsv(readFileSync(single, 'utf8')),
+      sameSources: sourceHash(ROOT) === hashBefore,
+    };
+  }
 
-    const a = parseCatalogueCsv(readFileSync(merged, 'utf8'));
-    const b = parseCatalogueCsv(readFileSync(single, 'utf8'));
+  it('fits the demo set in 4 array tasks whose merged table equals one single-process run, row by row', async () => {
+    let run = await submitAndCompare(1);
+    // Sources edited during the run (never in CI, which works on a clean clone): once more, up to twice.
+    for (let attempt = 2; !run.sameSources && attempt <= 3; attempt++) run = await submitAndCompare(attempt);
+    expect(run.sameSources, 'the sources kept changing during every attempt; the two runs would compare two programs').toBe(true);
+    const { merged: a, single: b } = run;
     expect(a.columns).toEqual(b.columns);
     expect(a.rows.length).toBeGreaterThan(90); // 44 demo files, 12 broken ones and the plate's 54 rows
     expect(a.rows.map((r) => r.file)).toEqual(b.rows.map((r) => r.file));
     a.rows.forEach((row, k) => expect(row, row.file).toEqual(b.rows[k]));
     expect(a.meta.merged_shards).toBe(String(ARRAY_TASKS));
     expect(a.meta.input_list).toBe(b.meta.input_list);
-  }, WAIT_LIMIT_MS + 120_000);
+  }, 3 * WAIT_LIMIT_MS + 300_000);
 });
 
 // Runs without Slurm too: the README keeps a script this test can find.

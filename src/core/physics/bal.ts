@@ -65,7 +65,19 @@ export function restOfOutflow(vKms: number, lambda0A: number): number {
 
 /** BI and AI from normalised flux on pixels of increasing outflow speed (v, f) with their interval edges. */
 export function balIndices(v: ArrayLike<number>, f: ArrayLike<number>, lambda0A = restWavelengthA('CIV')): BalIndices {
+  const { biKms, aiKms, troughs } = balIndicesWithWeights(v, f, lambda0A);
+  return { biKms, aiKms, troughs };
+}
+
+/**
+ * BI and AI with the velocity each pixel counts for in each (BI = sum of
+ * (1 - f_i / 0.9) biDv_i, AI = sum of (1 - f_i) aiDv_i), which the error
+ * propagation needs.
+ */
+function balIndicesWithWeights(v: ArrayLike<number>, f: ArrayLike<number>, lambda0A: number): BalIndices & { biDv: Float64Array; aiDv: Float64Array } {
   const n = v.length;
+  const biDv = new Float64Array(n);
+  const aiDv = new Float64Array(n);
   const lo = new Float64Array(n);
   const hi = new Float64Array(n);
   for (let i = 0; i < n; i++) {
@@ -86,7 +98,8 @@ export function balIndices(v: ArrayLike<number>, f: ArrayLike<number>, lambda0A 
     const x = 1 - f[i] / 0.9;
     if (x > 0) {
       if (Number.isNaN(runStart)) runStart = a;
-      bi += x * clip(a, b, runStart + 2000, Infinity);
+      biDv[i] = clip(a, b, runStart + 2000, Infinity);
+      bi += x * biDv[i];
     } else runStart = NaN;
   }
   // AI and the trough list: runs of f < 0.9 inside 0-29,000 km/s, kept when >= 1,000 km/s wide.
@@ -105,7 +118,8 @@ export function balIndices(v: ArrayLike<number>, f: ArrayLike<number>, lambda0A 
     if (vTo - vFrom >= 1000) {
       let depth = 0;
       for (let k = i; k <= j; k++) {
-        ai += (1 - f[k]) * clip(lo[k], hi[k], 0, 29000);
+        aiDv[k] = clip(lo[k], hi[k], 0, 29000);
+        ai += (1 - f[k]) * aiDv[k];
         depth = Math.max(depth, 1 - f[k]);
       }
       const biFrom = Math.max(vFrom, 3000);
@@ -114,10 +128,10 @@ export function balIndices(v: ArrayLike<number>, f: ArrayLike<number>, lambda0A 
     }
     i = j + 1;
   }
-  return { biKms: bi, aiKms: ai, troughs };
+  return { biKms: bi, aiKms: ai, troughs, biDv, aiDv };
 }
 
-export type BalOutcome = ({ ok: true; continuum: ContinuumFit } & BalIndices) | { ok: false; reason: string };
+export type BalOutcome = ({ ok: true; continuum: ContinuumFit; biErrKms: number; aiErrKms: number } & BalIndices) | { ok: false; reason: string };
 
 /** Smooth normalised flux with a boxcar of `px` good pixels (odd; 1 = none). */
 function boxcar(f: Float64Array, px: number): Float64Array {
@@ -159,6 +173,42 @@ export function measureBal(d: RestData, o: BalOptions = {}): BalOutcome {
   // Increasing outflow speed = decreasing wavelength.
   const idx = good.reverse();
   const v = Float64Array.from(idx, (i) => outflowKms(d.restA[i], l0));
-  const f = boxcar(Float64Array.from(idx, (i) => flux[i] / powerLawAt(continuum, d.restA[i])), o.smoothPx ?? 3);
-  return { ok: true, continuum, ...balIndices(v, f, l0) };
+  const px = o.smoothPx ?? 3;
+  const raw = Float64Array.from(idx, (i) => flux[i] / powerLawAt(continuum, d.restA[i]));
+  const f = boxcar(raw, px);
+  const { biKms, aiKms, troughs, biDv, aiDv } = balIndicesWithWeights(v, f, l0);
+  const sigma = Float64Array.from(idx, (i) => 1 / (Math.sqrt(d.weight[i]) * powerLawAt(continuum, d.restA[i])));
+  const lnx = Float64Array.from(idx, (i) => Math.log(d.restA[i] / continuum.refA));
+  const biErrKms = indexError(biDv, 1 / 0.9, f, sigma, lnx, px, continuum);
+  const aiErrKms = indexError(aiDv, 1, f, sigma, lnx, px, continuum);
+  return { ok: true, continuum, biKms, aiKms, troughs, biErrKms, aiErrKms };
+}
+
+/**
+ * 1-sigma error of an index X = sum of (1 - k f_i) dv_i by first-order
+ * propagation, the troughs' extent held fixed: the pixel noise through the
+ * boxcar (f_i is the mean of the normalised flux over its window), plus the
+ * continuum's scale and slope errors (f scales as 1 / power law), added in
+ * quadrature as if independent.
+ */
+function indexError(dv: Float64Array, k: number, f: Float64Array, sigma: Float64Array, lnx: Float64Array, px: number, c: ContinuumFit): number {
+  const n = f.length;
+  const h = px <= 1 ? 0 : (px - 1) >> 1;
+  const coef = new Float64Array(n);
+  let dLnA = 0;
+  let dAlpha = 0;
+  for (let i = 0; i < n; i++) {
+    if (dv[i] === 0) continue;
+    const dXdf = -k * dv[i];
+    const j0 = Math.max(0, i - h);
+    const j1 = Math.min(n - 1, i + h);
+    for (let j = j0; j <= j1; j++) coef[j] += dXdf / (j1 - j0 + 1);
+    // d f_i / d ln a = -f_i; d f_i / d alpha = -f_i ln(lambda_i / refA) (smoothing ignored here: the slope varies slowly).
+    dLnA += dXdf * -f[i];
+    dAlpha += dXdf * -f[i] * lnx[i];
+  }
+  let v = 0;
+  for (let j = 0; j < n; j++) if (coef[j] !== 0) v += coef[j] * coef[j] * sigma[j] * sigma[j];
+  v += (dLnA * c.aErr) ** 2 / (c.a * c.a) + (dAlpha * c.alphaErr) ** 2;
+  return Math.sqrt(v);
 }

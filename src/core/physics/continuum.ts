@@ -7,7 +7,7 @@
  *
  * as in Shen et al. (2011, ApJS 194, 45, sec. 3.2). a and b are linear: for
  * each trial alpha they are solved exactly (b >= 0), so alpha is found on a
- * grid of 0.5 refined by golden-section search and the covariance of (a, alpha, b) is taken
+ * grid of 0.5 refined by Brent's method and the covariance of (a, alpha, b) is taken
  * from the Jacobian at the best point, scaled by the reduced chi-square when
  * it exceeds 1. `a` is the power law at refA, in the file's flux unit.
  */
@@ -64,25 +64,30 @@ export function powerLawAt(c: Pick<ContinuumFit, 'a' | 'alpha' | 'refA'>, restA:
 
 interface Pts {
   lnx: Float64Array;
+  /** Scratch: the power law at the pixels, and the step factor of the grid. */
+  q: Float64Array;
+  r: Float64Array;
   t: Float64Array;
   y: Float64Array;
   w: Float64Array;
   n: number;
 }
 
-/** Best (a, b) at one alpha and its chi-square; b held >= 0. */
-function solveAt(p: Pts, alpha: number, withFe: boolean): { a: number; b: number; chi2: number } {
+/** Best (a, b) given the power-law values q at the pixels, and its chi-square; b held >= 0. */
+function solveWith(p: Pts, q: Float64Array, withFe: boolean): { a: number; b: number; chi2: number } {
   let spp = 0, spt = 0, stt = 0, spy = 0, sty = 0, syy = 0;
   for (let i = 0; i < p.n; i++) {
-    const q = Math.exp(alpha * p.lnx[i]);
+    const qi = q[i];
     const w = p.w[i];
-    spp += w * q * q;
-    spy += w * q * p.y[i];
-    syy += w * p.y[i] * p.y[i];
+    const y = p.y[i];
+    spp += w * qi * qi;
+    spy += w * qi * y;
+    syy += w * y * y;
     if (withFe) {
-      spt += w * q * p.t[i];
-      stt += w * p.t[i] * p.t[i];
-      sty += w * p.t[i] * p.y[i];
+      const t = p.t[i];
+      spt += w * qi * t;
+      stt += w * t * t;
+      sty += w * t * y;
     }
   }
   let a = spy / spp;
@@ -103,38 +108,90 @@ function solveAt(p: Pts, alpha: number, withFe: boolean): { a: number; b: number
   return { a, b, chi2 };
 }
 
-/** Minimum of chi2(alpha) on [from, to]: a grid of `step`, then golden-section search in the best cell's neighbourhood. */
+/** Best (a, b) at one alpha and its chi-square. */
+function solveAt(p: Pts, alpha: number, withFe: boolean): { a: number; b: number; chi2: number } {
+  const q = p.q;
+  for (let i = 0; i < p.n; i++) q[i] = Math.exp(alpha * p.lnx[i]);
+  return solveWith(p, q, withFe);
+}
+
+/**
+ * Minimum of chi2(alpha) on [from, to]: a grid of `step` (the power law at
+ * each grid point by one multiplication per pixel, q(alpha + step) = q(alpha)
+ * r), then Brent's method (parabolic steps guarded by golden section; Brent
+ * 1973, Algorithms for Minimization without Derivatives, ch. 5) in the best
+ * cell's neighbourhood to 1e-4 in alpha.
+ */
 function bestAlpha(p: Pts, withFe: boolean, from: number, to: number, step: number): { alpha: number; chi2: number } {
-  let best = { alpha: from, chi2: Infinity };
-  for (let al = from; al <= to + 1e-12; al += step) {
-    const c = solveAt(p, al, withFe).chi2;
-    if (c < best.chi2) best = { alpha: al, chi2: c };
+  const q = p.q;
+  const r = p.r;
+  for (let i = 0; i < p.n; i++) {
+    q[i] = Math.exp(from * p.lnx[i]);
+    r[i] = Math.exp(step * p.lnx[i]);
   }
-  let lo = Math.max(from, best.alpha - step);
-  let hi = Math.min(to, best.alpha + step);
-  const g = (Math.sqrt(5) - 1) / 2;
-  let x1 = hi - g * (hi - lo);
-  let x2 = lo + g * (hi - lo);
-  let f1 = solveAt(p, x1, withFe).chi2;
-  let f2 = solveAt(p, x2, withFe).chi2;
-  while (hi - lo > 1e-4) {
-    if (f1 < f2) {
-      hi = x2;
-      x2 = x1;
-      f2 = f1;
-      x1 = hi - g * (hi - lo);
-      f1 = solveAt(p, x1, withFe).chi2;
+  let best = { alpha: from, chi2: Infinity };
+  const nGrid = Math.floor((to - from) / step + 1e-9);
+  for (let k = 0; k <= nGrid; k++) {
+    if (k > 0) for (let i = 0; i < p.n; i++) q[i] *= r[i];
+    const c = solveWith(p, q, withFe).chi2;
+    if (c < best.chi2) best = { alpha: from + k * step, chi2: c };
+  }
+  const f = (al: number) => solveAt(p, al, withFe).chi2;
+  const found = brentMin(f, Math.max(from, best.alpha - step), Math.min(to, best.alpha + step), best.alpha, best.chi2, 1e-4);
+  return found.f < best.chi2 ? { alpha: found.x, chi2: found.f } : best;
+}
+
+/** Brent's minimiser on [a, b] from the point x (value fx), to absolute tolerance tol. */
+function brentMin(f: (x: number) => number, a: number, b: number, x: number, fx: number, tol: number): { x: number; f: number } {
+  const CGOLD = 0.381966;
+  let w = x, v = x, fw = fx, fv = fx;
+  let d = 0, e = 0;
+  for (let it = 0; it < 60; it++) {
+    const xm = (a + b) / 2;
+    const tol1 = tol / 2 + 1e-10 * Math.abs(x);
+    const tol2 = 2 * tol1;
+    if (Math.abs(x - xm) <= tol2 - (b - a) / 2) break;
+    let useGolden = true;
+    if (Math.abs(e) > tol1) {
+      let rr = (x - w) * (fx - fv);
+      let qq = (x - v) * (fx - fw);
+      let pp = (x - v) * qq - (x - w) * rr;
+      qq = 2 * (qq - rr);
+      if (qq > 0) pp = -pp;
+      qq = Math.abs(qq);
+      const eOld = e;
+      if (Math.abs(pp) < Math.abs(0.5 * qq * eOld) && pp > qq * (a - x) && pp < qq * (b - x)) {
+        e = d;
+        d = pp / qq;
+        const u = x + d;
+        if (u - a < tol2 || b - u < tol2) d = xm >= x ? tol1 : -tol1;
+        useGolden = false;
+      }
+    }
+    if (useGolden) {
+      e = x >= xm ? a - x : b - x;
+      d = CGOLD * e;
+    }
+    const u = Math.abs(d) >= tol1 ? x + d : x + (d > 0 ? tol1 : -tol1);
+    const fu = f(u);
+    if (fu <= fx) {
+      if (u >= x) a = x;
+      else b = x;
+      v = w; fv = fw;
+      w = x; fw = fx;
+      x = u; fx = fu;
     } else {
-      lo = x1;
-      x1 = x2;
-      f1 = f2;
-      x2 = lo + g * (hi - lo);
-      f2 = solveAt(p, x2, withFe).chi2;
+      if (u < x) a = u;
+      else b = u;
+      if (fu <= fw || w === x) {
+        v = w; fv = fw;
+        w = u; fw = fu;
+      } else if (fu <= fv || v === x || v === w) {
+        v = u; fv = fu;
+      }
     }
   }
-  const alpha = (lo + hi) / 2;
-  const c = solveAt(p, alpha, withFe).chi2;
-  return c < best.chi2 ? { alpha, chi2: c } : best;
+  return { x, f: fx };
 }
 
 function gather(d: RestData, o: ContinuumOptions, keep: (i: number) => boolean): { pts: Pts; windowsA: [number, number][]; idx: number[] } {
@@ -152,7 +209,7 @@ function gather(d: RestData, o: ContinuumOptions, keep: (i: number) => boolean):
     }
   }
   const n = idx.length;
-  const pts: Pts = { lnx: new Float64Array(n), t: new Float64Array(n), y: new Float64Array(n), w: new Float64Array(n), n };
+  const pts: Pts = { lnx: new Float64Array(n), q: new Float64Array(n), r: new Float64Array(n), t: new Float64Array(n), y: new Float64Array(n), w: new Float64Array(n), n };
   idx.forEach((i, k) => {
     pts.lnx[k] = Math.log(d.restA[i] / o.refA);
     pts.t[k] = o.withFe ? feTemplateAt(d.restA[i]) : 0;

@@ -1,10 +1,14 @@
 /**
  * Quasar measurements at a redshift: per region the continuum (power law +
  * Fe II), its standard luminosity wavelength and its broad line, then the C IV
- * absorption indices. Errors come from the fits and from `draws` resampled
- * spectra (each pixel moved by a Gaussian deviate of its own sigma, seeded, so
- * a spectrum always gives the same numbers; Shen et al. 2011, sec. 3.2, used
- * the same kind of resampling); the larger of the two is reported.
+ * absorption indices. Errors come from the fits' covariances (first-order
+ * propagation; test/core/physics/errors.test.ts checks them against the
+ * scatter over noise realisations). On request, `draws` resampled spectra
+ * (each pixel moved by a Gaussian deviate of its own sigma, seeded, so a
+ * spectrum always gives the same numbers; Shen et al. 2011, sec. 3.2, used
+ * the same kind of resampling) give a second estimate and the larger of the
+ * two is reported. The batch (worker fit, CLI) uses none: the draws cost ten
+ * times the fit; the review box offers them.
  */
 import type { Spectrum } from '../types';
 import { createRng } from '../sim/prng';
@@ -12,13 +16,13 @@ import { fluxScaleOf } from './fluxUnits';
 import { restData, type RestData } from './restData';
 import { REGIONS, type RegionDef } from './regions';
 import { fitContinuum, type ContinuumFit } from './continuum';
-import { broadSnr, fitBroadLine, lineData, propagatedError, widthsOf, type BestLineFit } from './broadLine';
+import { fitBroadLine, lineData, widthErrors, widthsOf, type BestLineFit } from './broadLine';
 import { fitGaussSum } from './gaussianSum';
 import { measureBal } from './bal';
 import type { AbsorptionResult, BroadLineResult, ContinuumPoint, QuasarMeasurement } from './types';
 
 export interface MeasureOptions {
-  /** Resampling draws per region (default 8; 0 = fit errors only). */
+  /** Resampling draws per region (default 0: errors from the fits alone). */
   draws?: number;
   /** Seed of the draws (default 1). */
   seed?: number;
@@ -55,9 +59,7 @@ function lineResult(r: RegionDef, d: RestData, c: ContinuumFit, nDraws: number, 
   best = best as BestLineFit;
   const { model, fit } = best;
   const w = widthsOf(model, fit.params);
-  const snr = broadSnr(model, fit);
-  const fwhmErrFit = propagatedError(model, fit, (p) => widthsOf(model, p).fwhmKms);
-  const sigmaErrFit = propagatedError(model, fit, (p) => widthsOf(model, p).sigmaKms);
+  const { fwhmErrKms: fwhmErrFit, sigmaErrKms: sigmaErrFit, snr } = widthErrors(model, fit);
   const fw: number[] = [];
   const sg: number[] = [];
   const rng = createRng(seed);
@@ -111,12 +113,13 @@ function absorption(d: RestData, nDraws: number, seed: number): AbsorptionResult
     }
   }
   const c = b.continuum;
-  return { ok: true, biKms: b.biKms, biErrKms: sd(bis), aiKms: b.aiKms, aiErrKms: sd(ais), troughs: b.troughs, continuum: { refA: c.refA, a: c.a, alpha: c.alpha, fe: 0 } };
+  const larger = (fit: number, draws: number) => Math.max(fit, Number.isFinite(draws) ? draws : 0);
+  return { ok: true, biKms: b.biKms, biErrKms: larger(b.biErrKms, sd(bis)), aiKms: b.aiKms, aiErrKms: larger(b.aiErrKms, sd(ais)), troughs: b.troughs, continuum: { refA: c.refA, a: c.a, alpha: c.alpha, fe: 0 } };
 }
 
 /** Everything the spectrum allows at z; never throws for a poor spectrum (each part says why it is missing). */
 export function measureQuasar(s: Spectrum, z: number, o: MeasureOptions = {}): QuasarMeasurement {
-  const nDraws = o.draws ?? 8;
+  const nDraws = o.draws ?? 0;
   const seed = o.seed ?? 1;
   const d = restData(s, z);
   const scale = fluxScaleOf(s.meta.fluxUnit);

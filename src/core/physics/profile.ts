@@ -1,7 +1,7 @@
 /**
  * Widths of a broad-line profile made of Gaussians in velocity: the FWHM of
- * the summed profile (its outermost half-maximum crossings, found on a fine
- * grid) and the line dispersion, the square root of the profile's second
+ * the summed profile (its outermost half-maximum crossings, bracketed on a
+ * grid and bisected) and the line dispersion, the square root of the profile's second
  * moment (Peterson et al. 2004, ApJ 613, 682, sec. 3.1 define both measures).
  */
 import { FWHM_PER_SIGMA } from '../engine/gaussFit';
@@ -25,41 +25,97 @@ export function profileAt(g: readonly VelocityGaussian[], u: number): number {
   return f;
 }
 
+function liveOf(g: readonly VelocityGaussian[]): VelocityGaussian[] {
+  return g.filter((c) => c.amp > 0 && c.sig > 0);
+}
+
+/**
+ * The profile's highest point (velocity, value). A sum of positive Gaussians
+ * peaks between its lowest and highest centre: a grid of a quarter of the
+ * narrowest sigma finds the highest cell, golden-section search refines it.
+ */
+function peakOf(live: readonly VelocityGaussian[]): { u: number; f: number } {
+  let minSig = Infinity;
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const c of live) {
+    minSig = Math.min(minSig, c.sig);
+    lo = Math.min(lo, c.vel);
+    hi = Math.max(hi, c.vel);
+  }
+  const step = minSig / 4;
+  let bestU = lo;
+  let bestF = -Infinity;
+  for (let u = lo - step; u <= hi + step; u += step) {
+    const f = profileAt(live, u);
+    if (f > bestF) {
+      bestF = f;
+      bestU = u;
+    }
+  }
+  let a = bestU - step;
+  let b = bestU + step;
+  const r = (Math.sqrt(5) - 1) / 2;
+  let x1 = b - r * (b - a);
+  let x2 = a + r * (b - a);
+  let f1 = profileAt(live, x1);
+  let f2 = profileAt(live, x2);
+  while (b - a > 1e-6 * minSig) {
+    if (f1 > f2) {
+      b = x2;
+      x2 = x1;
+      f2 = f1;
+      x1 = b - r * (b - a);
+      f1 = profileAt(live, x1);
+    } else {
+      a = x1;
+      x1 = x2;
+      f1 = f2;
+      x2 = a + r * (b - a);
+      f2 = profileAt(live, x2);
+    }
+  }
+  const u = (a + b) / 2;
+  const f = profileAt(live, u);
+  return f >= bestF ? { u, f } : { u: bestU, f: bestF };
+}
+
+/**
+ * Outermost crossing of `level` met walking from `from` toward the peak in
+ * steps of `step` (signed), then bisected to a millionth of the step.
+ */
+function crossing(live: readonly VelocityGaussian[], from: number, step: number, level: number, maxSteps: number): number {
+  let prev = from;
+  for (let i = 1; i <= maxSteps; i++) {
+    const u = from + i * step;
+    if (profileAt(live, u) >= level) {
+      let out = prev;
+      let inside = u;
+      while (Math.abs(inside - out) > 1e-6 * Math.abs(step)) {
+        const mid = (out + inside) / 2;
+        if (profileAt(live, mid) >= level) inside = mid;
+        else out = mid;
+      }
+      return (out + inside) / 2;
+    }
+    prev = u;
+  }
+  return NaN;
+}
+
 /** FWHM of the summed profile, km/s (NaN when it has no positive peak). One Gaussian gives 2 sqrt(2 ln 2) sigma. */
 export function profileFwhmKms(g: readonly VelocityGaussian[]): number {
-  const live = g.filter((c) => c.amp > 0 && c.sig > 0);
+  const live = liveOf(g);
   if (live.length === 0) return NaN;
   if (live.length === 1) return FWHM_PER_SIGMA * live[0].sig;
+  const peak = peakOf(live);
+  const half = peak.f / 2;
+  // Beyond 6 sigma of every component the sum is far below half its peak.
   const lo = Math.min(...live.map((c) => c.vel - 6 * c.sig));
   const hi = Math.max(...live.map((c) => c.vel + 6 * c.sig));
-  const step = Math.min(...live.map((c) => c.sig)) / 50;
-  const n = Math.ceil((hi - lo) / step) + 1;
-  let peak = 0;
-  for (let i = 0; i < n; i++) peak = Math.max(peak, profileAt(live, lo + i * step));
-  const half = peak / 2;
-  // Outermost crossings: walk in from each end, interpolate linearly inside the step.
-  let left = NaN;
-  let prev = profileAt(live, lo);
-  for (let i = 1; i < n; i++) {
-    const u = lo + i * step;
-    const f = profileAt(live, u);
-    if (f >= half) {
-      left = u - step * ((f - half) / (f - prev));
-      break;
-    }
-    prev = f;
-  }
-  let right = NaN;
-  prev = profileAt(live, hi);
-  for (let i = 1; i < n; i++) {
-    const u = hi - i * step;
-    const f = profileAt(live, u);
-    if (f >= half) {
-      right = u + step * ((f - half) / (f - prev));
-      break;
-    }
-    prev = f;
-  }
+  const step = Math.min(...live.map((c) => c.sig)) / 4;
+  const left = crossing(live, lo, step, half, Math.ceil((peak.u - lo) / step) + 1);
+  const right = crossing(live, hi, -step, half, Math.ceil((hi - peak.u) / step) + 1);
   return right - left;
 }
 
@@ -80,19 +136,7 @@ export function profileDispersionKms(g: readonly VelocityGaussian[]): number {
 
 /** Velocity of the profile's peak, km/s. */
 export function profilePeakKms(g: readonly VelocityGaussian[]): number {
-  const live = g.filter((c) => c.amp > 0 && c.sig > 0);
+  const live = liveOf(g);
   if (live.length === 0) return NaN;
-  const lo = Math.min(...live.map((c) => c.vel - 3 * c.sig));
-  const hi = Math.max(...live.map((c) => c.vel + 3 * c.sig));
-  const step = Math.min(...live.map((c) => c.sig)) / 50;
-  let best = lo;
-  let bestF = -Infinity;
-  for (let u = lo; u <= hi; u += step) {
-    const f = profileAt(live, u);
-    if (f > bestF) {
-      bestF = f;
-      best = u;
-    }
-  }
-  return best;
+  return peakOf(live).u;
 }

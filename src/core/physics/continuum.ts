@@ -194,46 +194,62 @@ function brentMin(f: (x: number) => number, a: number, b: number, x: number, fx:
   return { x, f: fx };
 }
 
-function gather(d: RestData, o: ContinuumOptions, keep: (i: number) => boolean): { pts: Pts; windowsA: [number, number][]; idx: number[] } {
+/** Search within 0.3 of a known slope; the full range when the answer sits at the edge of that window. */
+function alphaNearOrFull(p: Pts, withFe: boolean, near: number): { alpha: number; chi2: number } {
+  const lo = Math.max(ALPHA_MIN, near - 0.3);
+  const hi = Math.min(ALPHA_MAX, near + 0.3);
+  const r = bestAlpha(p, withFe, lo, hi, 0.1);
+  const atEdge = (r.alpha <= lo + 1e-3 && lo > ALPHA_MIN) || (r.alpha >= hi - 1e-3 && hi < ALPHA_MAX);
+  return atEdge ? bestAlpha(p, withFe, ALPHA_MIN, ALPHA_MAX, 0.5) : r;
+}
+
+function gather(d: RestData, o: ContinuumOptions, dropped: ReadonlySet<number> | null): { pts: Pts; windowsA: [number, number][]; idx: Int32Array } {
   const minPix = o.minPixelsPerWindow ?? 5;
   const y = o.flux ?? d.flux;
-  const idx: number[] = [];
+  const good = (i: number) => d.weight[i] > 0 && Number.isFinite(y[i]) && !(dropped && dropped.has(i));
+  const ranges: [number, number][] = [];
   const windowsA: [number, number][] = [];
+  let n = 0;
   for (const [lo, hi] of o.windowsA) {
     const [i0, i1] = indexRange(d.restA, lo, hi);
-    const here: number[] = [];
-    for (let i = i0; i < i1; i++) if (d.weight[i] > 0 && Number.isFinite(y[i]) && keep(i)) here.push(i);
-    if (here.length >= minPix) {
-      idx.push(...here);
+    let k = 0;
+    for (let i = i0; i < i1; i++) if (good(i)) k++;
+    if (k >= minPix) {
+      ranges.push([i0, i1]);
       windowsA.push([lo, hi]);
+      n += k;
     }
   }
-  const n = idx.length;
   const pts: Pts = { lnx: new Float64Array(n), q: new Float64Array(n), r: new Float64Array(n), t: new Float64Array(n), y: new Float64Array(n), w: new Float64Array(n), n };
-  idx.forEach((i, k) => {
-    pts.lnx[k] = Math.log(d.restA[i] / o.refA);
-    pts.t[k] = o.withFe ? feTemplateAt(d.restA[i]) : 0;
-    pts.y[k] = y[i];
-    pts.w[k] = d.weight[i];
-  });
+  const idx = new Int32Array(n);
+  let k = 0;
+  for (const [i0, i1] of ranges)
+    for (let i = i0; i < i1; i++) {
+      if (!good(i)) continue;
+      idx[k] = i;
+      pts.lnx[k] = Math.log(d.restA[i] / o.refA);
+      pts.t[k] = o.withFe ? feTemplateAt(d.restA[i]) : 0;
+      pts.y[k] = y[i];
+      pts.w[k] = d.weight[i];
+      k++;
+    }
   return { pts, windowsA, idx };
 }
 
 /** Fit the continuum of one region; refuses when fewer than two windows are covered or refA lies outside them. */
 export function fitContinuum(d: RestData, o: ContinuumOptions): ContinuumOutcome {
   const dropped = new Set<number>();
-  let g = gather(d, o, () => true);
+  let g = gather(d, o, null);
   let fit: { alpha: number; a: number; b: number; chi2: number } | null = null;
   const passes = o.clipBelowSigma ? 2 : 1;
+  let near = o.alphaNear;
   for (let pass = 0; pass < passes; pass++) {
     if (g.windowsA.length < 2) return { ok: false, reason: `continuum windows not covered (${g.windowsA.length} of ${o.windowsA.length} usable)` };
     const span: [number, number] = [Math.min(...g.windowsA.map((w) => w[0])), Math.max(...g.windowsA.map((w) => w[1]))];
     if (o.refA < span[0] - 25 || o.refA > span[1] + 25) return { ok: false, reason: `${o.refA} A lies outside the covered continuum windows` };
-    const fine =
-      o.alphaNear !== undefined
-        ? bestAlpha(g.pts, o.withFe, Math.max(ALPHA_MIN, o.alphaNear - 0.3), Math.min(ALPHA_MAX, o.alphaNear + 0.3), 0.1)
-        : bestAlpha(g.pts, o.withFe, ALPHA_MIN, ALPHA_MAX, 0.5);
+    const fine = near !== undefined ? alphaNearOrFull(g.pts, o.withFe, near) : bestAlpha(g.pts, o.withFe, ALPHA_MIN, ALPHA_MAX, 0.5);
     fit = { alpha: fine.alpha, ...solveAt(g.pts, fine.alpha, o.withFe) };
+    near = fit.alpha; // a clipping pass moves the slope little
     if (!o.clipBelowSigma || pass === passes - 1) break;
     const y = o.flux ?? d.flux;
     let more = 0;
@@ -245,7 +261,7 @@ export function fitContinuum(d: RestData, o: ContinuumOptions): ContinuumOutcome
       }
     }
     if (more === 0) break;
-    g = gather(d, o, (i) => !dropped.has(i));
+    g = gather(d, o, dropped);
   }
   if (!fit) return { ok: false, reason: 'no continuum fit' };
   if (fit.alpha <= ALPHA_MIN + 0.01 || fit.alpha >= ALPHA_MAX - 0.01) return { ok: false, reason: `power-law slope at the edge of its range (${fit.alpha.toFixed(2)})` };

@@ -72,6 +72,7 @@ class Scratch {
   model = new Float64Array(0);
   trialModel = new Float64Array(0);
   jac = new Float64Array(0);
+  trialJac = new Float64Array(0);
   A = new Float64Array(0);
   L = new Float64Array(0);
   g = new Float64Array(0);
@@ -86,7 +87,10 @@ class Scratch {
       this.model = new Float64Array(n);
       this.trialModel = new Float64Array(n);
     }
-    if (n * np > this.jac.length) this.jac = new Float64Array(n * np);
+    if (n * np > this.jac.length) {
+      this.jac = new Float64Array(n * np);
+      this.trialJac = new Float64Array(n * np);
+    }
     if (np * np > this.A.length) {
       this.A = new Float64Array(np * np);
       this.L = new Float64Array(np * np);
@@ -120,15 +124,14 @@ function lowerBound(u: Float64Array, n: number, v: number): number {
 }
 
 /**
- * chi2 at p; fills `model` and (when jac is true) the Jacobian in scratch.jac.
+ * chi2 at p; fills `model` and the Jacobian `jac` (n x np, row-major).
  * Each component is summed only over its pixels within 8 sigma (found by
  * binary search: the pixels are in increasing wavelength).
  */
-function evaluate(m: GaussSumModel, p: ArrayLike<number>, y: Float64Array, w: Float64Array, model: Float64Array, withJac: boolean, sc: Scratch): number {
+function evaluate(m: GaussSumModel, p: ArrayLike<number>, y: Float64Array, w: Float64Array, model: Float64Array, jac: Float64Array, sc: Scratch): number {
   const { n, np, u } = sc;
-  const jac = sc.jac;
   model.fill(0, 0, n);
-  if (withJac) jac.fill(0, 0, n * np);
+  jac.fill(0, 0, n * np);
   const comps = m.components;
   for (let k = 0; k < comps.length; k++) {
     const c = comps[k];
@@ -142,13 +145,11 @@ function evaluate(m: GaussSumModel, p: ArrayLike<number>, y: Float64Array, w: Fl
       const t = (u[i] - centre) * inv;
       const e = Math.exp(-0.5 * t * t);
       model[i] += a * e;
-      if (withJac) {
-        const row = i * np;
-        jac[row + c.amp] += c.ampFactor * e;
-        const ae = a * e * t * inv;
-        jac[row + c.vel] += ae;
-        jac[row + c.sig] += ae * t;
-      }
+      const row = i * np;
+      jac[row + c.amp] += c.ampFactor * e;
+      const ae = a * e * t * inv;
+      jac[row + c.vel] += ae;
+      jac[row + c.sig] += ae * t;
     }
   }
   let chi2 = 0;
@@ -217,7 +218,7 @@ export function fitGaussSum(m: GaussSumModel, p0: readonly number[], x: Float64A
   for (let i = 0; i < n; i++) sc.u[i] = C_KMS * Math.log(x[i]);
   m.components.forEach((c, k) => (sc.centre[k] = C_KMS * Math.log(c.restA)));
   const trial = new Array<number>(np);
-  let chi2 = evaluate(m, p, y, w, sc.model, true, sc);
+  let chi2 = evaluate(m, p, y, w, sc.model, sc.jac, sc);
   buildNormal(y, w, sc);
   const { A, L, g, step } = sc;
   let lambda = 1e-3;
@@ -249,11 +250,14 @@ export function fitGaussSum(m: GaussSumModel, p0: readonly number[], x: Float64A
       const k = free[i];
       trial[k] = Math.min(upper[k], Math.max(lower[k], p[k] + step[i]));
     }
-    const c2 = evaluate(m, trial, y, w, sc.trialModel, false, sc);
+    // The trial's Jacobian is computed with it: most trials are accepted, and then it is already there.
+    const c2 = evaluate(m, trial, y, w, sc.trialModel, sc.trialJac, sc);
     if (c2 < chi2) {
       const small = chi2 - c2 < 0.01 * Math.max(1, c2 / dof);
       for (let k = 0; k < np; k++) p[k] = trial[k];
-      chi2 = evaluate(m, p, y, w, sc.model, true, sc);
+      chi2 = c2;
+      [sc.model, sc.trialModel] = [sc.trialModel, sc.model];
+      [sc.jac, sc.trialJac] = [sc.trialJac, sc.jac];
       buildNormal(y, w, sc);
       lambda = Math.max(lambda / 10, 1e-9);
       if (small) break;

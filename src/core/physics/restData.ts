@@ -17,7 +17,7 @@ export interface RestData {
   noiseEstimated: boolean;
 }
 
-/** Rest-frame view of a spectrum at z;. */
+/** Rest-frame view of a spectrum at z. */
 export function restData(s: Spectrum, z: number): RestData {
   const n = s.wavelengthA.length;
   const restA = new Float64Array(n);
@@ -43,12 +43,20 @@ export function restData(s: Spectrum, z: number): RestData {
   return { restA, flux, weight, noiseEstimated: estimated };
 }
 
-/** Index range [lo, hi) of rest wavelengths inside [fromA, toA] (restA increasing). */
+/** Index range [lo, hi) of rest wavelengths inside [fromA, toA] (restA increasing; binary search). */
 export function indexRange(restA: Float64Array, fromA: number, toA: number): [number, number] {
-  let lo = 0;
-  while (lo < restA.length && restA[lo] < fromA) lo++;
-  let hi = lo;
-  while (hi < restA.length && restA[hi] <= toA) hi++;
+  const firstWhere = (ok: (v: number) => boolean) => {
+    let a = 0;
+    let b = restA.length;
+    while (a < b) {
+      const m = (a + b) >> 1;
+      if (ok(restA[m])) b = m;
+      else a = m + 1;
+    }
+    return a;
+  };
+  const lo = firstWhere((v) => v >= fromA);
+  const hi = Math.max(lo, firstWhere((v) => v > toA));
   return [lo, hi];
 }
 

@@ -217,6 +217,11 @@ export interface ReviewDecision {
    * (decisions stored before flags were part of the decision, and unflagged ones).
    */
   flags?: ReviewFlag[];
+  /**
+   * Quasar physics the review box measured at this decision's z, kept so
+   * exports carry the physics at a z the reviewer changed; absent otherwise.
+   */
+  quasar?: QuasarMeasurement;
 }
 
 /** Lambda-CDM parameters; H0 in km/s/Mpc. omegaLambda = 1 - omegaM - omegaK - omegaR. */

@@ -2,9 +2,11 @@
  * Table cells of the physics columns for one row: the fit's quasar
  * measurement turned into quantities for the export's cosmology, at the z the
  * row's derived quantities use. A measurement made at another z (the
- * reviewer changed it) is not reused: the cells stay empty and the note says so.
+ * reviewer changed it) is not reused: the cells stay empty and the note says
+ * so, unless the decision carries its own measurement at its z
+ * (withDecisionPhysics), which then takes the fit's place.
  */
-import type { CosmologyParams, FitResult, SpectrumClass } from '../types';
+import type { CosmologyParams, FitResult, ReviewDecision, SpectrumClass } from '../types';
 import { quasarQuantities } from './quantities';
 import type { BroadLineId } from './regions';
 
@@ -19,6 +21,22 @@ const LINE_KEYS: readonly [BroadLineId, string][] = [
 
 /** Same z within this (a refit moves z by far more). */
 const SAME_Z = 1e-6;
+
+/** The fit as an export row for this decision should see it: the decision's measurement, made at the decision's z, in place of the fit's. */
+export function withDecisionPhysics(result: FitResult, decision: ReviewDecision | undefined): FitResult {
+  const m = decision?.quasar;
+  if (!m || result.status !== 'ok' || decision.z === null || Math.abs(m.z - decision.z) > SAME_Z) return result;
+  return { ...result, quasar: m };
+}
+
+/** The decision with the measurement `m` attached when m was made at its z for a quasar, and without a stale one otherwise. */
+export function decisionWithPhysics(decision: ReviewDecision, m: FitResult['quasar'] | undefined): ReviewDecision {
+  const fits = m && decision.class === 'qso' && decision.z !== null && Math.abs(m.z - decision.z) <= SAME_Z;
+  if (fits) return { ...decision, quasar: m };
+  if (!decision.quasar) return decision;
+  const { quasar: _stale, ...rest } = decision;
+  return rest;
+}
 
 /**
  * Cells by column name, or only a note. `z` and `cls` are what the row's

@@ -21,6 +21,7 @@ import { SOFTWARE_VERSION } from '../version';
 import { TEAM_META_KEY } from '../../core/team/fromCatalogue';
 import type { TeamTag } from '../../core/team/teamTag';
 import { ENGINE_VERSION } from '../../core/engine/version';
+import { withDecisionPhysics } from '../../core/physics/rowValues';
 
 export type ExportFormat = 'csv' | 'csv-plain' | 'json' | 'fits' | 'votable' | 'lines-csv';
 
@@ -73,7 +74,8 @@ export async function buildExport(
       continue;
     }
     if (!templateSet && result.status === 'ok') templateSet = result.templateSet;
-    rows.push(catalogueRow(result, r.decision, cosmology));
+    // A decision at a changed z brings its own quasar measurement (src/core/physics/rowValues.ts).
+    rows.push(catalogueRow(withDecisionPhysics(result, r.decision), r.decision, cosmology));
     lines.push(lineRows(result));
   }
   const meta: ExportMeta = { software: 'Shiftmark', version: SOFTWARE_VERSION, templateSet: templateSet || 'none (no spectrum fitted)', cosmology, createdAt, extra: { engine: ENGINE_VERSION } };

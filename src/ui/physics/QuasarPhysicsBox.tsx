@@ -29,7 +29,7 @@ export interface QuasarPhysicsBoxProps {
 const LINE_LABEL: Record<string, string> = { CIV: 'C IV', MgII: 'Mg II', Hbeta: 'H\u03b2', Halpha: 'H\u03b1' };
 
 export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, onUseZ }: QuasarPhysicsBoxProps) {
-  const { review } = useServices();
+  const { review, session } = useServices();
   const [m, setM] = useState<QuasarMeasurement | null>(null);
   const [busy, setBusy] = useState(false);
   const [masked, setMasked] = useState<FitResult | null>(null);
@@ -46,14 +46,18 @@ export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, 
       if (!live) return;
       setBusy(false);
       setM(ans);
-      if (ans) onTroughs(troughMaskRangesA(ans));
+      if (ans) {
+        onTroughs(troughMaskRangesA(ans));
+        // A decision at this z keeps the measurement, so exports carry the physics at a reviewed z.
+        session.noteQuasarMeasurement(rowKey, ans);
+      }
     });
     return () => {
       live = false;
     };
     // onTroughs is the panel's state setter; rowKey and z decide what is measured.
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [rowKey, z, active, review]);
+  }, [rowKey, z, active, review, session]);
 
   if (cls !== 'qso') return null;
   const q = m ? quasarQuantities(m, cosmology) : null;

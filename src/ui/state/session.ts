@@ -18,6 +18,8 @@ import { planImport, type ImportPlan } from '../persist/planImport';
 import { SOFTWARE_NAME_VERSION } from '../version';
 import { teamTagProblems, type TeamTag } from '../../core/team/teamTag';
 import { isSpectrumKey, spectrumEntries } from './spectrumRows';
+import type { QuasarMeasurement } from '../../core/physics/types';
+import { decisionWithPhysics } from '../../core/physics/rowValues';
 
 export type RowStatus = 'waiting' | 'fitting' | 'ok' | 'failed' | 'timeout' | 'cancelled';
 
@@ -112,6 +114,8 @@ export class Session {
   private team: TeamTag | null = null;
   /** Multi-object files already split into their spectra, by file key: they hold the bytes but are no row. */
   private splitFiles = new Map<string, EntryRecord>();
+  /** The review box's latest quasar measurement per row; a decision at its z takes it along (exports then carry the physics at a reviewed z). */
+  private quasarSeen = new Map<string, QuasarMeasurement>();
 
   constructor(
     readonly db: SessionDb,
@@ -401,10 +405,16 @@ export class Session {
 
   // ---- decisions and settings ---------------------------------------
 
+  /** The review box measured quasar physics for a row at m.z (kept in memory for the row's next decision). */
+  noteQuasarMeasurement(key: string, m: QuasarMeasurement): void {
+    this.quasarSeen.set(key, m);
+  }
+
   /** Store a decision at once; the list shows it when the write has landed (or failed, with the banner). */
-  async decide(key: string, decision: ReviewDecision): Promise<void> {
+  async decide(key: string, given: ReviewDecision): Promise<void> {
     const row = this.rowsByKey.get(key);
     if (!row) throw new Error(`unknown file key: ${key}`);
+    const decision = decisionWithPhysics(given, this.quasarSeen.get(key));
     try {
       await this.db.putDecision(key, decision);
     } finally {

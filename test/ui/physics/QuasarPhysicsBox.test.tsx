@@ -23,21 +23,22 @@ const measured: QuasarMeasurement = {
 };
 
 function renderBox(onTroughs = vi.fn(), onUseZ = vi.fn()) {
+  const session = { noteQuasarMeasurement: vi.fn() };
   const review = fakeReview({
     measureQuasar: vi.fn(async () => measured),
     refitMasked: vi.fn(async () => makeResult('q', { z: 2.01, class: 'qso' })),
   });
   render(
-    <ServicesContext.Provider value={{ session: {} as Session, review }}>
+    <ServicesContext.Provider value={{ session: session as unknown as Session, review }}>
       <QuasarPhysicsBox rowKey="k" z={2} cls="qso" ready cosmology={COSMO} onTroughs={onTroughs} onUseZ={onUseZ} />
     </ServicesContext.Provider>,
   );
-  return { review, onTroughs, onUseZ };
+  return { review, session, onTroughs, onUseZ };
 }
 
 describe('QuasarPhysicsBox', () => {
   it('asks the worker to measure at the shown z and shows the mass with its 0.4 dex systematic', async () => {
-    const { review, onTroughs } = renderBox();
+    const { review, session, onTroughs } = renderBox();
     expect(review.measureQuasar).toHaveBeenCalledWith('k', 2);
     const box = await screen.findByTestId('physics-box');
     await waitFor(() => expect(box.textContent).toContain('civ_vp06'));
@@ -46,6 +47,8 @@ describe('QuasarPhysicsBox', () => {
     expect(screen.getByTestId('physics-bal').textContent).toContain('BI 3556 km/s');
     // Troughs are handed to the plot in observed Angstrom: rest x (1 + z).
     expect(onTroughs).toHaveBeenLastCalledWith([[1474.4 * 3, 1523.5 * 3]]);
+    // The session keeps it for a decision at this z (exports then carry the physics at a reviewed z).
+    expect(session.noteQuasarMeasurement).toHaveBeenCalledWith('k', measured);
   });
   it('fits again with the troughs masked on request and offers to refit at the answer', async () => {
     const { review, onUseZ } = renderBox();

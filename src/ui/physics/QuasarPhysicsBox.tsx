@@ -2,14 +2,16 @@
  * The "physical quantities" box for a quasar: measured in the worker at the
  * shown z when the spectrum is open (never on the page's thread), turned into
  * luminosities and masses for the session's cosmology by core. Troughs go back
- * to the panel for shading; the reviewer can ask for a fit with them masked.
+ * to the panel for shading and the broad-line fits as a curve on the
+ * spectrum's grid for the plot; the reviewer can ask for a fit with the
+ * troughs masked.
  */
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import type { CosmologyParams, FitResult, SpectrumClass } from '../../core/types';
 import type { QuasarMeasurement } from '../../core/physics/types';
 import { quasarQuantities } from '../../core/physics/quantities';
 import { MASS_SYSTEMATIC_DEX } from '../../core/physics/calibrations';
-import { troughMaskRangesA } from '../../core/physics/draw';
+import { physicsModelAt, troughMaskRangesA } from '../../core/physics/draw';
 import { useServices } from '../state/SessionContext';
 import { fmtNum, fmtZ } from '../format';
 
@@ -22,13 +24,17 @@ export interface QuasarPhysicsBoxProps {
   cosmology: CosmologyParams;
   /** Observed trough ranges (Angstrom) to shade; [] when none. */
   onTroughs: (rangesA: [number, number][]) => void;
+  /** The open spectrum's observed wavelengths (Angstrom), null until it is open. */
+  wavelengthA?: Float64Array | null;
+  /** The broad-line fits on that grid (NaN outside their ranges) for the plot; null when none. */
+  onCurve?: (curve: Float64Array | null) => void;
   /** Take a redshift found with the troughs masked (the panel refits there). */
   onUseZ: (z: number) => void;
 }
 
 const LINE_LABEL: Record<string, string> = { CIV: 'C IV', MgII: 'Mg II', Hbeta: 'H\u03b2', Halpha: 'H\u03b1' };
 
-export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, onUseZ }: QuasarPhysicsBoxProps) {
+export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, onUseZ, wavelengthA = null, onCurve }: QuasarPhysicsBoxProps) {
   const { review, session } = useServices();
   const [m, setM] = useState<QuasarMeasurement | null>(null);
   const [busy, setBusy] = useState(false);
@@ -58,6 +64,13 @@ export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, 
     // onTroughs is the panel's state setter; rowKey and z decide what is measured.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [rowKey, z, active, review, session]);
+
+  const curve = useMemo(() => (m && wavelengthA && m.lines.some((l) => l.ok) ? physicsModelAt(m, wavelengthA) : null), [m, wavelengthA]);
+  useEffect(() => {
+    onCurve?.(curve);
+    // onCurve is the panel's state setter.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [curve]);
 
   if (cls !== 'qso') return null;
   const q = m ? quasarQuantities(m, cosmology) : null;
@@ -117,6 +130,7 @@ export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, 
             </dd>
           </dl>
           {q.massReason && <p className="muted small">No mass: {q.massReason}</p>}
+          {curve && <p className="muted small" data-testid="physics-curve-note">The broad-line fits (continuum plus Gaussians over each fitted range) are drawn on the plot in short thick dashes.</p>}
           <p className="muted small">
             Single-epoch masses carry about {MASS_SYSTEMATIC_DEX} dex systematic uncertainty; luminosities are not corrected for extinction or host light.
           </p>

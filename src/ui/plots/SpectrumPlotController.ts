@@ -68,6 +68,7 @@ export class SpectrumPlotController {
   private series: DisplaySeries | null = null;
   private model: Float64Array | null = null;
   private compareModel: Float64Array | null = null;
+  private physicsModel: Float64Array | null = null;
   private widthPx = 0;
   private heightPx = 0;
   private pixelRatio = 1;
@@ -139,6 +140,14 @@ export class SpectrumPlotController {
     const m = model && this.series && model.length === this.series.wavelengthA.length ? model : null;
     if (m === this.compareModel) return;
     this.compareModel = m;
+    this.mark(DIRTY_DATA);
+  }
+
+  /** Quasar broad-line fits to draw (NaN outside their ranges; null = none). */
+  setPhysicsModel(model: Float64Array | null): void {
+    const m = model && this.series && model.length === this.series.wavelengthA.length ? model : null;
+    if (m === this.physicsModel) return;
+    this.physicsModel = m;
     this.mark(DIRTY_DATA);
   }
 
@@ -315,6 +324,7 @@ export class SpectrumPlotController {
       series: this.series!,
       model: this.model,
       compareModel: this.compareModel,
+      physicsModel: this.physicsModel,
     });
     this.framesDrawn++;
   }

@@ -41,6 +41,8 @@ export interface SpectrumViewProps {
   fluxUnit?: string;
   /** A second solution to compare with: its model (dashed) and its line markers (ticks from the bottom). */
   compare?: { z: number; markers: readonly LineMarker[]; model: Float64Array | null } | null;
+  /** Quasar broad-line fits on the same grid (NaN outside their ranges), drawn in short dashes; null = none. */
+  physicsModel?: Float64Array | null;
 }
 
 /** Default plot height, CSS px. */
@@ -107,6 +109,11 @@ export function SpectrumView(props: SpectrumViewProps): ReactElement {
   useLayoutEffect(() => {
     ctrlRef.current?.setCompareModel(compareModel);
   }, [ctrl, series, compareModel]);
+
+  const physicsModel = props.physicsModel ?? null;
+  useLayoutEffect(() => {
+    ctrlRef.current?.setPhysicsModel(physicsModel);
+  }, [ctrl, series, physicsModel]);
 
   useLayoutEffect(() => {
     ctrlRef.current?.setOnFeatureClick(onFeatureClick);

@@ -41,6 +41,8 @@ export interface SpectrumFrame {
   model: Float64Array | null;
   /** A second solution's model for comparison (drawn dashed), or null. */
   compareModel?: Float64Array | null;
+  /** Quasar broad-line fits on the same grid, NaN outside their ranges (drawn in short dashes), or null. */
+  physicsModel?: Float64Array | null;
   /** 'auto' (default) decimates past DECIMATE_POINTS_PER_COLUMN per column; the others force a path, for tests and benchmarks. */
   decimate?: 'auto' | 'always' | 'never';
 }
@@ -130,6 +132,17 @@ export function drawSpectrumFrame(ctx: Canvas2DLike, f: SpectrumFrame): FrameSta
     if (byColumns) traceColumns(ctx, decimateMinMax(w, f.model, x0, x1, nCols), colX, Y);
     else tracePoints(ctx, w, f.model, i0, i1, X, Y);
     ctx.stroke();
+  }
+
+  if (f.physicsModel && f.physicsModel.length === w.length) {
+    ctx.strokeStyle = SPECTRUM_COLOURS.physics;
+    ctx.lineWidth = 2;
+    ctx.setLineDash([3, 2]);
+    ctx.beginPath();
+    if (byColumns) traceColumns(ctx, decimateMinMax(w, f.physicsModel, x0, x1, nCols), colX, Y);
+    else tracePoints(ctx, w, f.physicsModel, i0, i1, X, Y);
+    ctx.stroke();
+    ctx.setLineDash([]);
   }
   ctx.restore();
   return { mode: byColumns ? 'columns' : 'points', visiblePoints: visible, columns: nCols };

@@ -34,6 +34,8 @@ export const SPECTRUM_COLOURS = {
   crosshair: '#666666',
   /** A second solution for comparison: its model dashed, its markers as ticks from the bottom. */
   compare: OKABE_ITO.bluishGreen,
+  /** Quasar broad-line fits (continuum + Gaussians over their fitted ranges): short dashes, thicker. */
+  physics: OKABE_ITO.orange,
 } as const;
 
 /** Family colours for fit-quality curves, paired with dash patterns so hue is never the only cue. */

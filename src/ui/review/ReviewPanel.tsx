@@ -51,6 +51,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
   const { solution, result, spec, naming } = rs;
   const [smoothingPx, setSmoothingPx] = useState(1);
   const [troughsA, setTroughsA] = useState<[number, number][]>([]);
+  const [physicsCurve, setPhysicsCurve] = useState<Float64Array | null>(null);
   const zInput = useRef<HTMLInputElement>(null);
   const lambdaInput = useRef<HTMLInputElement>(null);
   const noteInput = useRef<HTMLTextAreaElement>(null);
@@ -189,6 +190,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
             resetKey={row.key}
             fluxUnit={spec.spectrum.meta.fluxUnit}
             compare={compared ? { z: compared.z, markers: markersFor(compared.class), model: rs.compare?.model ?? null } : null}
+            physicsModel={physicsCurve}
           />
         ) : spec.kind === 'loading' ? (
           <p className="muted">Opening the spectrum…</p>
@@ -260,7 +262,7 @@ export function ReviewPanel({ row, cosmology, onDecision, onReopen, ref }: Revie
           <h3>Lines at this redshift</h3>
           {solution ? <LineTable lines={solution.lines} /> : <p className="muted">No redshift.</p>}
           <DerivedPanel z={solution?.z ?? null} cls={solution?.cls ?? 'unknown'} cosmology={cosmology} reviewed={!!decided} />
-          <QuasarPhysicsBox rowKey={row.key} z={solution?.z ?? null} cls={solution?.cls ?? 'unknown'} ready={spec.kind === 'ready'} cosmology={cosmology} onTroughs={setTroughsA} onUseZ={(z) => void rs.refitAt(z, 'refit')} />
+          <QuasarPhysicsBox rowKey={row.key} z={solution?.z ?? null} cls={solution?.cls ?? 'unknown'} ready={spec.kind === 'ready'} cosmology={cosmology} onTroughs={setTroughsA} onUseZ={(z) => void rs.refitAt(z, 'refit')} wavelengthA={spec.kind === 'ready' ? spec.spectrum.wavelengthA : null} onCurve={setPhysicsCurve} />
         </>
       )}
     </section>

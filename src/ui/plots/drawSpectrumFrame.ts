@@ -136,8 +136,8 @@ export function drawSpectrumFrame(ctx: Canvas2DLike, f: SpectrumFrame): FrameSta
 
   if (f.physicsModel && f.physicsModel.length === w.length) {
     ctx.strokeStyle = SPECTRUM_COLOURS.physics;
-    ctx.lineWidth = 2;
-    ctx.setLineDash([3, 2]);
+    ctx.lineWidth = 2.5;
+    ctx.setLineDash([5, 3]);
     ctx.beginPath();
     if (byColumns) traceColumns(ctx, decimateMinMax(w, f.physicsModel, x0, x1, nCols), colX, Y);
     else tracePoints(ctx, w, f.physicsModel, i0, i1, X, Y);

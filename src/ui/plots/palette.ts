@@ -35,7 +35,7 @@ export const SPECTRUM_COLOURS = {
   /** A second solution for comparison: its model dashed, its markers as ticks from the bottom. */
   compare: OKABE_ITO.bluishGreen,
   /** Quasar broad-line fits (continuum + Gaussians over their fitted ranges): short dashes, thicker. */
-  physics: OKABE_ITO.orange,
+  physics: OKABE_ITO.reddishPurple,
 } as const;
 
 /** Family colours for fit-quality curves, paired with dash patterns so hue is never the only cue. */

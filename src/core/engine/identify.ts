@@ -2,16 +2,21 @@
  * "Name this line": a reviewer clicks a feature in the plot; locateFeature
  * finds and fits the nearest significant peak or trough, and suggestLines
  * lists the catalogue lines it could be, each with the redshift it implies and
- * how many other catalogue lines would then sit on real features.
+ * how many other lines the line table would detect at that redshift (the one
+ * feature rule of features.ts, at SUPPORT_SNR).
  *
- * The support count is a quick test, not a fit: treat a suggestion with little
- * support as a guess, and check the implied redshift against the whole spectrum.
+ * The support count is a check at a fixed redshift, not a fit: treat a
+ * suggestion with little support as a guess, and fit the whole spectrum near
+ * the implied redshift.
  */
-import type { Spectrum } from '../types';
-import { LINES } from '../lines/catalogue';
+import type { Spectrum, SpectrumClass } from '../types';
+import { LINES, type CatalogueLine } from '../lines/catalogue';
+import { classLines } from '../lines/classLines';
+import { countFeatures } from './features';
+import { measureLines } from './measureLines';
 import { FWHM_PER_SIGMA, fitGaussLine, fittedFlux } from './gaussFit';
-import { continuumValue, filterAt, fitClippedContinuum, jointFilterScan, noiseScale } from './lines/matchedFilter';
-import { lowerIndex, pixelWidthAt, pixelWindow, type PixelWindow } from './lines/pixelWindow';
+import { continuumValue, filterAt, fitClippedContinuum } from './lines/matchedFilter';
+import { lowerIndex, pixelWidthAt, pixelWindow } from './lines/pixelWindow';
 
 /** Speed of light, km/s (exact, SI definition). */
 import { C_KMS } from '../constants';
@@ -20,7 +25,7 @@ import { C_KMS } from '../constants';
 export const LOCATE_SNR = 5;
 /** The fitted feature must have |flux| / fluxErr at least this. */
 export const LOCATE_FIT_SNR = 3;
-/** A predicted line position supports a redshift when the matched filter there reaches this signal-to-noise. */
+/** A line of the line table at a hypothesis' redshift supports it when detected at this signal-to-noise (above the table's 3: each hypothesis is a new look for noise). */
 export const SUPPORT_SNR = 4;
 
 export interface LocatedFeature {
@@ -151,56 +156,6 @@ function fitFeature(
   };
 }
 
-/**
- * Signal-to-noise of the best peak (sign +1) or trough (-1) of width sigmaA
- * within toleranceA of lambdaA, against a quadratic continuum from side bands
- * 3 to 10 sigma (plus tolerance) away; noise inflated by the side bands' scatter
- * when it exceeds the stated errors. Pixels within exclude.halfA of
- * exclude.centreA (a known feature) are ignored. 0 when the data there are too thin.
- */
-export function featureSnrAt(
-  spectrum: Spectrum, lambdaA: number, sigmaA: number, sign: 1 | -1, toleranceA: number,
-  exclude?: { centreA: number; halfA: number },
-): number {
-  const inner = 3 * sigmaA + toleranceA;
-  const outer = 10 * sigmaA + toleranceA;
-  const win: PixelWindow = pixelWindow(spectrum, lambdaA - outer, lambdaA + outer);
-  if (exclude) {
-    for (let k = 0; k < win.xA.length; k++) if (Math.abs(win.xA[k] - exclude.centreA) <= exclude.halfA) win.w[k] = 0;
-  }
-  const side = (k: number): boolean => Math.abs(win.xA[k] - lambdaA) > inner;
-  let nBlue = 0;
-  let nRed = 0;
-  let nCore = 0;
-  for (let k = 0; k < win.xA.length; k++) {
-    if (!(win.w[k] > 0)) continue;
-    if (side(k)) {
-      if (win.xA[k] < lambdaA) nBlue++;
-      else nRed++;
-    } else if (Math.abs(win.xA[k] - lambdaA) <= toleranceA + sigmaA) nCore++;
-  }
-  // Both side bands are needed: a one-sided continuum extrapolates its slope error.
-  if (nBlue < 3 || nRed < 3 || nCore < 2) return 0;
-  // A quadratic through the two side bands follows a curved continuum (a power
-  // law, say), which a straight chord would turn into false troughs or peaks.
-  // First a clipped continuum finds side-band outliers (other lines, spikes) to drop.
-  const cont = fitClippedContinuum(win.xA, win.y, win.w, side, lambdaA, 2);
-  if (!cont) return 0;
-  const scale = noiseScale(win.xA, win.y, win.w, side, cont);
-  const w = win.w.map((v, k) =>
-    side(k) && Math.abs(win.y[k] - continuumValue(cont, win.xA[k])) * Math.sqrt(v) > 3 * scale ? 0 : v);
-  // Then Gaussian and quadratic are fitted together at each trial centre, so the
-  // continuum's own uncertainty enters the amplitude error.
-  // Trial centres every quarter sigma (at least every pixel).
-  const stride = sigmaA / 4 / pixelWidthAt(spectrum, lambdaA);
-  const hit = jointFilterScan(
-    win.xA, win.y, w, lowerIndex(win.xA, lambdaA - toleranceA), lowerIndex(win.xA, lambdaA + toleranceA) - 1,
-    stride, sigmaA, lambdaA, 2, outer, sign,
-  );
-  const best = hit ? Math.max(0, (sign * hit.snr) / scale) : 0;
-  return best;
-}
-
 /** Default plausible redshift range for suggestions (brief: -0.005 to 7). */
 export const SUGGEST_Z_MIN = -0.005;
 export const SUGGEST_Z_MAX = 7;
@@ -208,24 +163,27 @@ export const SUGGEST_Z_MAX = 7;
 /**
  * Catalogue lines of the given kind that the feature at centreA could be,
  * best first: most supporting lines, then the catalogue strength of the line,
- * then the summed signal-to-noise of the support. Each other catalogue line
- * is tested at its predicted position (emission as a peak, absorption as a
- * trough) with the clicked feature's velocity width; lines that would land on
- * the clicked feature itself (within 5 sigma of it, at least 1000 km/s, plus
- * the position tolerance) are not counted, and its pixels are kept out of the
- * other tests' continuum.
+ * then the summed signal-to-noise of the support. The support is the line
+ * table at the implied redshift (measureLines, with the class that lists the
+ * hypothesis line; a broad feature only quasar broad lines): its detected
+ * features at S/N >= SUPPORT_SNR, apart from any on the clicked feature itself
+ * (within 5 sigma of it, at least 1000 km/s).
  */
 /** FWHM above which a clicked feature is taken as a quasar broad line, km/s. */
 export const BROAD_FEATURE_KMS = 1500;
+
+/** The class whose line table tests a hypothesis: a broad line's is the quasar's; otherwise the first class that lists the line. */
+function classOfHypothesis(line: CatalogueLine, broad: boolean): SpectrumClass {
+  if (broad) return 'qso';
+  for (const cls of ['galaxy', 'star', 'qso'] as const) if (classLines(cls).some((c) => c.line.id === line.id)) return cls;
+  return 'galaxy';
+}
 
 export function suggestLines(
   spectrum: Spectrum, centreA: number, kind: 'emission' | 'absorption', options?: { zMin?: number; zMax?: number },
 ): LineSuggestion[] {
   const zMin = options?.zMin ?? SUGGEST_Z_MIN;
   const zMax = options?.zMax ?? SUGGEST_Z_MAX;
-  const wl = spectrum.wavelengthA;
-  const lamMin = wl[0];
-  const lamMax = wl[wl.length - 1];
   const pix = pixelWidthAt(spectrum, centreA);
 
   // Velocity width of the clicked feature (300 km/s when it cannot be fitted);
@@ -233,9 +191,9 @@ export function suggestLines(
   const found = locateWith(spectrum, centreA, 3 * pix, KERNEL_PIXELS.map((n) => n * pix));
   const fwhmKms = Math.min(10000, Math.max(2.5 * (pix / centreA) * C_KMS, found ? (found.fwhmA / centreA) * C_KMS : 300));
 
-  // The clicked feature itself is kept out of every test: +-5 sigma (where a
+  // Lines on the clicked feature itself do not support it: +-5 sigma (where a
   // Gaussian has fallen to 4e-6 of its peak), at least 1000 km/s.
-  const exclude = { centreA, halfA: (Math.max((5 * fwhmKms) / FWHM_PER_SIGMA, 1000) / C_KMS) * centreA };
+  const excludeHalfA = (Math.max((5 * fwhmKms) / FWHM_PER_SIGMA, 1000) / C_KMS) * centreA;
   // A feature broader than narrow lines ever are (FWHM > 1500 km/s; common
   // practice puts the broad-line boundary near 1000-2000 km/s) can only be a
   // quasar broad line, and only other broad lines can be expected at its width.
@@ -246,26 +204,14 @@ export function suggestLines(
     if (broad && !hyp.roles.includes('qso-broad')) continue;
     const z = centreA / hyp.restA - 1;
     if (!(z >= zMin && z <= zMax)) continue;
-    const supportingIds: string[] = [];
-    let snrSum = 0;
-    for (const other of LINES) {
-      if (other.id === hyp.id) continue;
-      if (broad && !other.roles.includes('qso-broad')) continue;
-      const lamA = (1 + z) * other.restA;
-      const sigmaA = Math.max(0.8 * pix, ((fwhmKms / C_KMS) * lamA) / FWHM_PER_SIGMA);
-      const tolA = Math.max(1.5 * pix, 0.5 * FWHM_PER_SIGMA * sigmaA, (200 / C_KMS) * lamA);
-      // The predicted line and one sigma either side must lie inside the data.
-      if (lamA - sigmaA - tolA < lamMin || lamA + sigmaA + tolA > lamMax) continue;
-      if (Math.abs(lamA - centreA) < exclude.halfA + tolA) continue;
-      const snr = featureSnrAt(spectrum, lamA, sigmaA, other.kind === 'emission' ? 1 : -1, tolA, exclude);
-      if (snr >= SUPPORT_SNR) {
-        supportingIds.push(other.id);
-        snrSum += snr;
-      }
-    }
+    // Support: the features the line table would show at this z (features.ts,
+    // the rule the grade uses), apart from the clicked feature itself, at the
+    // stricter SUPPORT_SNR since every hypothesis is a new look for noise.
+    const features = countFeatures(measureLines(spectrum, z, classOfHypothesis(hyp, broad))).lines
+      .filter((l) => l.id !== hyp.id && l.snr >= SUPPORT_SNR && Math.abs(l.observedA - centreA) >= excludeHalfA);
     scored.push({
-      lineId: hyp.id, label: hyp.label, restA: hyp.restA, z, supporting: supportingIds.length, supportingIds,
-      strength: hyp.strength, snrSum,
+      lineId: hyp.id, label: hyp.label, restA: hyp.restA, z, supporting: features.length, supportingIds: features.map((l) => l.id),
+      strength: hyp.strength, snrSum: features.reduce((t, l) => t + l.snr, 0),
     });
   }
   scored.sort((a, b) => b.supporting - a.supporting || b.strength - a.strength || b.snrSum - a.snrSum);

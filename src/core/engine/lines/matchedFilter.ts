@@ -2,9 +2,8 @@
  * Quick local tools shared by the line measurements and the feature finder:
  * a low-order polynomial continuum from chosen pixels, and a Gaussian matched filter
  * that gives, at each trial centre, the least-squares amplitude of a fixed-width
- * Gaussian and its signal-to-noise.
- * Over 300 lines: the exhaustive matched filter (the test reference) sits
- * beside its strided fast version so the two are read together.
+ * Gaussian and its signal-to-noise. The exhaustive matched filter (the test
+ * reference) sits beside its strided fast version so the two are read together.
  */
 import { choleskySolve } from '../../numeric/cholesky';
 import { gaussOfSquare } from './gaussTable';
@@ -119,7 +118,7 @@ export function fitClippedContinuum(
 /**
  * Square root of the reduced chi-square of a continuum over its points, at
  * least 1: the factor by which the stated noise understates the real scatter
- * (used to inflate matched-filter errors).
+ * (used to set the continuum's clipping limit).
  */
 export function noiseScale(
   xA: ArrayLike<number>, y: ArrayLike<number>, w: ArrayLike<number>, use: (k: number) => boolean, fit: ContinuumFit,
@@ -277,100 +276,4 @@ function parabolaPeak(x1: number, y1: number, x2: number, y2: number, x3: number
   const den = a - c;
   if (!(Math.abs(den) > 0)) return x2;
   return x2 - 0.5 * ((x2 - x1) * a - (x2 - x3) * c) / den;
-}
-
-/**
- * Gaussian of fixed sigma centred on pixel k fitted jointly with a polynomial
- * continuum (degree 0-2) to all points with w > 0: one weighted linear least
- * squares, so the amplitude error includes the continuum's uncertainty.
- * snr = amplitude / sqrt(C_aa), C = inverse normal matrix (standard linear
- * least squares). snr 0 when the system is singular.
- */
-export function jointFilterAt(
-  xA: ArrayLike<number>, y: ArrayLike<number>, w: ArrayLike<number>, k: number, sigmaA: number,
-  xRef: number, degree: 0 | 1 | 2, spanA: number,
-): FilterHit {
-  const c = xA[k];
-  const m = degree + 2;
-  const a = Array.from({ length: m }, () => new Array<number>(m).fill(0));
-  const b = new Array<number>(m).fill(0);
-  const basis = new Array<number>(m);
-  for (let j = 0; j < xA.length; j++) {
-    if (!(w[j] > 0)) continue;
-    const t = (xA[j] - c) / sigmaA;
-    basis[0] = Math.abs(t) < 6 ? Math.exp(-0.5 * t * t) : 0; // same 6-sigma cut as jointFilterScan
-    const u = (xA[j] - xRef) / spanA;
-    for (let i = 0; i <= degree; i++) basis[i + 1] = u ** i;
-    for (let p = 0; p < m; p++) {
-      b[p] += w[j] * basis[p] * y[j];
-      for (let q = 0; q < m; q++) a[p][q] += w[j] * basis[p] * basis[q];
-    }
-  }
-  const sol = solveSmall(a, b);
-  const e0 = solveSmall(a, [1, ...new Array<number>(m - 1).fill(0)]);
-  if (!sol || !e0 || !(e0[0] > 0)) return { k, centreA: c, amplitude: 0, snr: 0, sigmaA };
-  return { k, centreA: c, amplitude: sol[0], snr: sol[0] / Math.sqrt(e0[0]), sigmaA };
-}
-
-/**
- * jointFilterAt for a run of trial centres kFrom..kTo (every stride-th pixel),
- * returning the hit with the largest sign * snr (sign 0: largest |snr|), or
- * null. Fast path: the continuum-continuum and continuum-data sums do not
- * depend on the centre and are formed once; the Gaussian sums use pixels
- * within 6 sigma. Same numbers as calling jointFilterAt at each centre.
- */
-export function jointFilterScan(
-  xA: ArrayLike<number>, y: ArrayLike<number>, w: ArrayLike<number>, kFrom: number, kTo: number, stride: number,
-  sigmaA: number, xRef: number, degree: 0 | 1 | 2, spanA: number, sign: 1 | -1 | 0,
-): FilterHit | null {
-  const m = degree + 2;
-  const pp = Array.from({ length: m - 1 }, () => new Array<number>(m - 1).fill(0));
-  const py = new Array<number>(m - 1).fill(0);
-  const pwBuf = [1, 0, 0];
-  const pows = (x: number): number[] => {
-    const u = (x - xRef) / spanA;
-    pwBuf[1] = u;
-    pwBuf[2] = u * u;
-    return pwBuf;
-  };
-  for (let j = 0; j < xA.length; j++) {
-    if (!(w[j] > 0)) continue;
-    const pw = pows(xA[j]);
-    for (let p = 0; p <= degree; p++) {
-      py[p] += w[j] * pw[p] * y[j];
-      for (let q = 0; q <= degree; q++) pp[p][q] += w[j] * pw[p] * pw[q];
-    }
-  }
-  let best: FilterHit | null = null;
-  let bestScore = -Infinity;
-  const step = Math.max(1, Math.floor(stride));
-  for (let k = Math.max(0, kFrom); k <= Math.min(xA.length - 1, kTo); k += step) {
-    const c = xA[k];
-    let gg = 0;
-    let gy = 0;
-    const gp = new Array<number>(degree + 1).fill(0);
-    for (let j = k; j >= 0 && c - xA[j] < 6 * sigmaA; j--) accumulate(j);
-    for (let j = k + 1; j < xA.length && xA[j] - c < 6 * sigmaA; j++) accumulate(j);
-    function accumulate(j: number): void {
-      if (!(w[j] > 0)) return;
-      const t = (xA[j] - c) / sigmaA;
-      const g = Math.exp(-0.5 * t * t);
-      const pw = pows(xA[j]);
-      gg += w[j] * g * g;
-      gy += w[j] * g * y[j];
-      for (let p = 0; p <= degree; p++) gp[p] += w[j] * g * pw[p];
-    }
-    const a = [[gg, ...gp], ...pp.map((row, p) => [gp[p], ...row])];
-    const b = [gy, ...py];
-    const sol = solveSmall(a, b);
-    const e0 = solveSmall(a, [1, ...new Array<number>(m - 1).fill(0)]);
-    if (!sol || !e0 || !(e0[0] > 0)) continue;
-    const hit = { k, centreA: c, amplitude: sol[0], snr: sol[0] / Math.sqrt(e0[0]), sigmaA };
-    const score = sign === 0 ? Math.abs(hit.snr) : sign * hit.snr;
-    if (score > bestScore) {
-      bestScore = score;
-      best = hit;
-    }
-  }
-  return best;
 }

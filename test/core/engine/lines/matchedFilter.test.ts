@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
-  bestFilterHit, bestFilterHitStrided, continuumValue, filterAt, fitClippedContinuum, fitContinuum, jointFilterAt, jointFilterScan, noiseScale,
+  bestFilterHit, bestFilterHitStrided, continuumValue, filterAt, fitClippedContinuum, fitContinuum, noiseScale,
 } from '../../../../src/core/engine/lines/matchedFilter';
 import { seededNormal } from './testKit';
 
@@ -85,29 +85,4 @@ describe('Gaussian matched filters', () => {
     expect(bestFilterHit(x, r.map(() => 0), ones, 0, 200, [2], 1)).toBeNull();
   });
 
-  it('jointFilterAt recovers the amplitude on a curved continuum, with a larger error than the plain filter', () => {
-    const y = x.map((v) => quad(v) + 4 * gauss(v, x[100], 2));
-    const h = jointFilterAt(x, y, ones, 100, 2, 6050, 2, 50);
-    expect(h.amplitude).toBeCloseTo(4, 8);
-    const plain = filterAt(x, y.map((v, k) => v - quad(x[k])), ones, 100, 2);
-    expect(Math.abs(h.amplitude / h.snr)).toBeGreaterThan(Math.abs(plain.amplitude / plain.snr));
-  });
-
-  it('jointFilterScan (fast) agrees with jointFilterAt at every centre (slow, obvious)', () => {
-    const rnd = seededNormal(17);
-    const y = x.map((v) => quad(v) + 4 * gauss(v, x[90], 2) + 0.3 * rnd());
-    const w = ones.map((_, k) => (k % 23 === 0 ? 0 : 11));
-    for (const sign of [1, -1, 0] as const) {
-      let best: ReturnType<typeof jointFilterAt> | null = null;
-      for (let k = 70; k <= 130; k += 3) {
-        const h = jointFilterAt(x, y, w, k, 2, 6050, 2, 50);
-        const score = sign === 0 ? Math.abs(h.snr) : sign * h.snr;
-        if (!best || score > (sign === 0 ? Math.abs(best.snr) : sign * best.snr)) best = h;
-      }
-      const fast = jointFilterScan(x, y, w, 70, 130, 3, 2, 6050, 2, 50, sign)!;
-      expect(fast.k).toBe(best!.k);
-      expect(fast.snr).toBeCloseTo(best!.snr, 8);
-      expect(fast.amplitude).toBeCloseTo(best!.amplitude, 8);
-    }
-  });
 });

@@ -213,6 +213,8 @@ export function fitGaussSum(m: GaussSumModel, p0: readonly number[], x: Float64A
   const n = x.length;
   const dof = n - np;
   if (dof < 3) return { ok: false, reason: 'too few pixels for the line model', params: p, covariance: [], chi2: NaN, dof, nPix: n };
+  // The 8-sigma windows are found by binary search, which needs increasing wavelengths.
+  for (let i = 1; i < n; i++) if (!(x[i] > x[i - 1])) return { ok: false, reason: 'line-fit wavelengths are not increasing', params: p, covariance: [], chi2: NaN, dof, nPix: n };
   const sc = scratch;
   sc.size(n, np, m.components.length);
   for (let i = 0; i < n; i++) sc.u[i] = C_KMS * Math.log(x[i]);

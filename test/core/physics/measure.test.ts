@@ -70,7 +70,7 @@ describe('measureQuasar on simulated quasars (injected widths and luminosity)', 
     const err = runs[0].lines.find((l) => l.id === 'Hbeta')!.fwhmErrKms!;
     for (const x of f) expect(Math.abs(x - mean)).toBeLessThan(3 * err);
   });
-  it('gives the same numbers for the same spectrum (seeded draws)', () => {
+  it('gives the same numbers for the same spectrum (deterministic: no random draws unless asked, and those seeded)', () => {
     expect(measureQuasar(simulatedQuasar(11), 1)).toEqual(runs[0]);
   });
   it('draws the fitted lines on the observed grid, NaN outside their ranges', () => {

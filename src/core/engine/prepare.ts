@@ -53,7 +53,8 @@ export interface PreparedData {
 
 export function prepareData(spectrum: Spectrum): PreparedData | string {
   const { bad, report } = findArtifacts(spectrum);
-  const mask = Uint8Array.from(spectrum.mask, (m, i) => (m || bad[i] ? 1 : 0));
+  const mask = new Uint8Array(spectrum.mask.length);
+  for (let i = 0; i < mask.length; i++) mask[i] = spectrum.mask[i] || bad[i] ? 1 : 0;
   const ls = resampleToLogGrid({ ...spectrum, mask }, DLOG10);
   const m = ls.flux.length;
   const sig = new Float64Array(m);

@@ -163,14 +163,15 @@ export function modelOnData(data: WeightedData, vectors: Float64Array[], kStart:
   return out;
 }
 
-/** One vector: sum_j amplitudes_j vectors_j (the fit's template part). */
+/** One vector: sum_j amplitudes_j vectors_j (the fit's template part), each vector summed over its non-zero span only. */
 export function combination(vectors: Float64Array[], amplitudes: Float64Array): Float64Array {
   const out = new Float64Array(vectors[0].length);
   for (let j = 0; j < vectors.length; j++) {
     const a = amplitudes[j];
     if (a === 0) continue;
     const v = vectors[j];
-    for (let t = 0; t < out.length; t++) out[t] += a * v[t];
+    const [first, last] = nonZeroSpan(v);
+    for (let t = first; t <= last; t++) out[t] += a * v[t];
   }
   return out;
 }

@@ -194,9 +194,8 @@ export function buildGalaxyFamily(galaxies: TemplateTable[]): FamilyBasis {
     vectors: [...eig.vectors.map((v, i) => ({ id: eigenIds[i], values: v, nonNegative: false, eigen: true })), ...emission],
     scan: [
       ...eigenIds.slice(0, GALAXY_SCAN_EIGEN).map((id) => ({ id, weights: { [id]: 1 } })),
-      // [O II] at a ratio of 1.4 (3730/3727 ~ 1.4 at low density, from memory); then the other nebular groups at typical strengths.
-      { id: '[O II]', weights: { '[O II] low density': 1 } },
-      { id: 'nebular', weights: { 'Balmer case B': 1, '[O III]': 0.5, '[N II]+[S II]': 0.5 } },
+      // One nebular vector at typical strengths, [O II] at a ratio of 1.4 (3730/3727 ~ 1.4 at low density, from memory).
+      { id: 'nebular', weights: { '[O II] low density': 1, 'Balmer case B': 1, '[O III]': 0.5, '[N II]+[S II]': 0.5 } },
     ],
     sources: galaxies.map((t) => t.name),
     heldFraction: eig.fractions.reduce((a, b) => a + b, 0),

@@ -283,6 +283,8 @@ describe.skipIf(!browserAvailable)('review in Chromium: keyboard, reload, export
       const expected = automaticRow(fitBytes(new Uint8Array(readFileSync(join(ROOT, r.file.replace(/#\d+$/, '')))), r.file), DEFAULT_COSMOLOGY);
       for (const c of AUTOMATIC_COLUMNS) {
         if (c.group === 'derived') continue; // derived columns follow final_z in the reviewed table
+        // quasar quantities follow the reviewer's z and class too (measured in review, or a note why not)
+        if (c.group === 'physics' && reviewed.has(r.object_id)) continue;
         expect(r[c.name], `${r.file} ${c.name}`).toBe(expected[c.name]);
       }
     }

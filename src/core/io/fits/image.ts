@@ -12,6 +12,7 @@
  * wavelength, and-mask, or-mask is read that way (see `undescribedFiveRows`).
  * An and-mask row masks every pixel where it is non-zero.
  */
+import { median } from '../../numeric/median';
 import { checkPixelCount } from '../assemble';
 import { SpectrumReadError } from '../../types';
 import { decodeValues, type Scaling } from './decode';
@@ -110,10 +111,7 @@ function sampledMedian(values: ArrayLike<number>, keep: (v: number) => boolean):
   const step = Math.max(1, Math.floor(values.length / 20000));
   const s: number[] = [];
   for (let i = 0; i < values.length; i += step) if (Number.isFinite(values[i]) && keep(values[i])) s.push(values[i]);
-  if (s.length === 0) return NaN;
-  s.sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+  return median(s);
 }
 
 /**

@@ -52,8 +52,16 @@ export interface FitWorkerApi {
   measureLines(key: string, z: number, cls: SpectrumClass): LineMeasurement[] | null;
   /** Best-fit model flux of a template family at z on the spectrum's own grid (NaN where undefined); null when not open. */
   solutionModel(key: string, z: number, family: string): Float64Array | null;
-  /** Quasar physics at z (continuum, broad lines, absorption troughs); null when the spectrum is not open. */
-  measureQuasar(key: string, z: number): QuasarMeasurement | null;
+  /**
+   * Quasar physics at z (continuum, broad lines, absorption troughs); null when the spectrum is not open.
+   * With `draws` > 0, errors also from that many seeded resampled spectra (each draw refits every region: slow).
+   */
+  measureQuasar(key: string, z: number, draws?: number): QuasarMeasurement | null;
+  /**
+   * Quasar physics at z of the spectrum `file` names in `bytes`, read for this call only (not cached, so the
+   * review's open spectra stay): for exports of decisions the review box never measured. A file the reader refuses comes back as its message.
+   */
+  measureQuasarFile(bytes: Uint8Array, file: string, z: number): QuasarMeasurement | { error: string };
   /**
    * Fit again with the observed ranges (Angstrom) masked, e.g. absorption troughs:
    * near zCentre when given, else over the whole range; null when not open.
@@ -145,9 +153,18 @@ export function createFitWorkerApi(cacheEntries = SPECTRUM_CACHE_ENTRIES): FitWo
       const model = solutionModel(spectrum, z, family);
       return transfer(model, [model.buffer as ArrayBuffer]);
     },
-    measureQuasar(key, z) {
+    measureQuasar(key, z, draws = 0) {
       const spectrum = cache.get(key);
       if (!spectrum) return null;
+      return safeMeasureQuasar(spectrum, z, { draws });
+    },
+    measureQuasarFile(bytes, file, z) {
+      let spectrum: Spectrum;
+      try {
+        spectrum = readSpectrumById(bytes, file);
+      } catch (e) {
+        return { error: e instanceof SpectrumReadError ? e.message : `${file}: internal reader error: ${(e as Error)?.message ?? e}` };
+      }
       return safeMeasureQuasar(spectrum, z);
     },
     refitMasked(key, rangesA, zCentre) {

@@ -33,6 +33,7 @@ export function fakeReview(over: Partial<ReviewApi> = {}): ReviewApi {
     measureLines: vi.fn(async () => []),
     solutionModel: vi.fn(async () => null),
     measureQuasar: vi.fn(async () => null),
+    measureQuasarFile: vi.fn(async () => ({ error: 'not scripted in this test' })),
     refitMasked: vi.fn(async () => null),
     ...over,
   };

@@ -6,17 +6,17 @@
  */
 import type { FitResult, Spectrum } from '../types';
 import { readSpectrumById } from '../io/readSpectra';
-import { measureQuasar } from './measure';
+import { measureQuasar, type MeasureOptions } from './measure';
 import type { QuasarMeasurement } from './types';
 
 function failedMeasurement(z: number, reason: string): QuasarMeasurement {
   return { z, fluxScale: { ok: false, reason }, continua: [], lines: [], absorption: { ok: false, reason, troughs: [] }, draws: 0, noiseEstimated: false };
 }
 
-/** Measurement of a spectrum at z that never throws. */
-export function safeMeasureQuasar(s: Spectrum, z: number): QuasarMeasurement {
+/** Measurement of a spectrum at z that never throws (resampling draws only when `o` asks). */
+export function safeMeasureQuasar(s: Spectrum, z: number, o: MeasureOptions = {}): QuasarMeasurement {
   try {
-    return measureQuasar(s, z);
+    return measureQuasar(s, z, o);
   } catch (e) {
     return failedMeasurement(z, `quasar measurement failed: ${(e as Error)?.message ?? e}`);
   }

@@ -4,9 +4,9 @@
  * luminosities and masses for the session's cosmology by core. Troughs go back
  * to the panel for shading and the broad-line fits as a curve on the
  * spectrum's grid for the plot; the reviewer can ask for a fit with the
- * troughs masked.
+ * troughs masked, or for errors from seeded resampling (slow, so on request).
  */
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { CosmologyParams, FitResult, SpectrumClass } from '../../core/types';
 import type { QuasarMeasurement } from '../../core/physics/types';
 import { quasarQuantities } from '../../core/physics/quantities';
@@ -32,6 +32,9 @@ export interface QuasarPhysicsBoxProps {
   onUseZ: (z: number) => void;
 }
 
+/** Resampled spectra for errors on request: the spread of 32 draws is known to about 13 % (1 / sqrt(2 x 31), normal sampling theory). */
+export const RESAMPLING_DRAWS = 32;
+
 const LINE_LABEL: Record<string, string> = { CIV: 'C IV', MgII: 'Mg II', Hbeta: 'H\u03b2', Halpha: 'H\u03b1' };
 
 export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, onUseZ, wavelengthA = null, onCurve }: QuasarPhysicsBoxProps) {
@@ -40,8 +43,11 @@ export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, 
   const [busy, setBusy] = useState(false);
   const [masked, setMasked] = useState<FitResult | null>(null);
   const active = cls === 'qso' && ready && z !== null && z > 0;
+  /** Bumped whenever the row or z changes, so a late answer for an earlier one is dropped. */
+  const asked = useRef(0);
 
   useEffect(() => {
+    const ask = ++asked.current;
     setM(null);
     setMasked(null);
     onTroughs([]);
@@ -49,7 +55,7 @@ export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, 
     let live = true;
     setBusy(true);
     void review.measureQuasar(rowKey, z!).then((ans) => {
-      if (!live) return;
+      if (!live || ask !== asked.current) return;
       setBusy(false);
       setM(ans);
       if (ans) {
@@ -71,6 +77,19 @@ export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, 
     // onCurve is the panel's state setter.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [curve]);
+
+  const resample = () => {
+    const ask = asked.current;
+    setBusy(true);
+    void review.measureQuasar(rowKey, z!, RESAMPLING_DRAWS).then((ans) => {
+      if (ask !== asked.current) return;
+      setBusy(false);
+      if (!ans) return;
+      setM(ans);
+      onTroughs(troughMaskRangesA(ans));
+      session.noteQuasarMeasurement(rowKey, ans);
+    });
+  };
 
   if (cls !== 'qso') return null;
   const q = m ? quasarQuantities(m, cosmology) : null;
@@ -131,6 +150,19 @@ export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, 
           </dl>
           {q.massReason && <p className="muted small">No mass: {q.massReason}</p>}
           {curve && <p className="muted small" data-testid="physics-curve-note">The broad-line fits (continuum plus Gaussians over each fitted range) are drawn on the plot in short thick dashes.</p>}
+          <p className="muted small" data-testid="physics-errors-from">
+            {m.draws > 0
+              ? `Errors: the larger of the fit's and the spread over ${m.draws} resampled spectra (seeded: the same numbers every time).`
+              : "Errors from the fits' covariances."}
+            {m.draws === 0 && (
+              <>
+                {' '}
+                <button type="button" disabled={busy} onClick={resample}>
+                  Errors by resampling (slow)
+                </button>
+              </>
+            )}
+          </p>
           <p className="muted small">
             Single-epoch masses carry about {MASS_SYSTEMATIC_DEX} dex systematic uncertainty; luminosities are not corrected for extinction or host light.
           </p>

@@ -58,6 +58,28 @@ describe('QuasarPhysicsBox', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Refit there' }));
     expect(onUseZ).toHaveBeenCalledWith(2.01);
   });
+  it('re-measures with 32 seeded draws on request and says the errors now come from resampling', async () => {
+    // The batch's measurement has no draws; the worker's answer with draws carries a wider FWHM error (as core reports the larger of the two).
+    const fromFit: QuasarMeasurement = { ...measured, draws: 0 };
+    const resampled: QuasarMeasurement = { ...measured, draws: 32, lines: [{ ...measured.lines[0], fwhmErrKms: 250 }] };
+    const session = { noteQuasarMeasurement: vi.fn() };
+    const review = fakeReview({ measureQuasar: vi.fn(async (_k: string, _z: number, draws?: number) => (draws ? resampled : fromFit)) });
+    render(
+      <ServicesContext.Provider value={{ session: session as unknown as Session, review }}>
+        <QuasarPhysicsBox rowKey="k" z={2} cls="qso" ready cosmology={COSMO} onTroughs={() => {}} onUseZ={() => {}} />
+      </ServicesContext.Provider>,
+    );
+    const from = await screen.findByTestId('physics-errors-from');
+    expect(from.textContent).toContain("fits' covariances");
+    expect(screen.getByTestId('physics-box').textContent).toContain('5000 ± 100 km/s');
+    fireEvent.click(screen.getByRole('button', { name: 'Errors by resampling (slow)' }));
+    expect(review.measureQuasar).toHaveBeenLastCalledWith('k', 2, 32);
+    await waitFor(() => expect(screen.getByTestId('physics-errors-from').textContent).toContain('spread over 32 resampled spectra'));
+    expect(screen.getByTestId('physics-box').textContent).toContain('5000 ± 250 km/s');
+    expect(screen.queryByRole('button', { name: 'Errors by resampling (slow)' })).toBeNull();
+    // A decision at this z takes the resampled measurement along.
+    expect(session.noteQuasarMeasurement).toHaveBeenLastCalledWith('k', resampled);
+  });
   it('shows nothing for a galaxy', () => {
     render(
       <ServicesContext.Provider value={{ session: {} as Session, review: fakeReview() }}>

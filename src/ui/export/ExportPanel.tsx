@@ -4,10 +4,11 @@ import { describeCosmology } from '../../core/cosmology';
 import { useServices, useSessionSnapshot } from '../state/SessionContext';
 import { Overlay } from '../panels/Overlay';
 import { buildExport, EXPORT_FORMATS, type ExportFormat, type ExportScope } from './buildExport';
+import { workerMeasurer } from './measureMissing';
 import { downloadBlob, stamp } from '../download';
 
 export function ExportPanel({ onClose }: { onClose: () => void }) {
-  const { session } = useServices();
+  const { session, review } = useServices();
   const snap = useSessionSnapshot();
   const [format, setFormat] = useState<ExportFormat>('csv');
   const [scope, setScope] = useState<ExportScope>('all');
@@ -17,12 +18,27 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
   const run = async () => {
     setStatus('Building the table…');
     try {
-      const built = await buildExport({ rows: snap.rows, getResult: (k) => session.getResult(k), team: session.teamTag() }, format, snap.cosmology, scope);
+      const built = await buildExport(
+        {
+          rows: snap.rows,
+          getResult: (k) => session.getResult(k),
+          team: session.teamTag(),
+          measureQuasar: workerMeasurer(session, review),
+          onMeasureProgress: (done, total) => setStatus(`Measuring quasar physics at reviewed redshifts: ${done} of ${total}…`),
+        },
+        format,
+        snap.cosmology,
+        scope,
+      );
       const f = EXPORT_FORMATS.find((x) => x.id === format)!;
       const what = format === 'lines-csv' ? 'lines' : 'catalogue';
       downloadBlob(built.data as BlobPart, `shiftmark-${what}-${stamp()}.${f.ext}`, f.mime);
       const saved = format === 'lines-csv' ? `Saved ${built.lineCount} line rows from ${built.rowCount} spectra.` : `Saved ${built.rowCount} rows.`;
-      setStatus(`${saved}${built.notFitted ? ` ${built.notFitted} files not yet fitted were left out.` : ''}`);
+      const measured = built.physicsMeasured ? ` Quasar physics measured now for ${built.physicsMeasured} decisions at their redshift.` : '';
+      const unmeasured = built.physicsUnmeasured
+        ? ` ${built.physicsUnmeasured} quasar decisions could not be measured (file not stored or not readable): their physics cells are empty, with a note.`
+        : '';
+      setStatus(`${saved}${built.notFitted ? ` ${built.notFitted} files not yet fitted were left out.` : ''}${measured}${unmeasured}`);
     } catch (e) {
       setStatus(`Export failed: ${(e as Error)?.message ?? e}`);
     }

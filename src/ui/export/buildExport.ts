@@ -21,7 +21,8 @@ import { SOFTWARE_VERSION } from '../version';
 import { TEAM_META_KEY } from '../../core/team/fromCatalogue';
 import type { TeamTag } from '../../core/team/teamTag';
 import { ENGINE_VERSION } from '../../core/engine/version';
-import { withDecisionPhysics } from '../../core/physics/rowValues';
+import { decisionWithPhysics, withDecisionPhysics } from '../../core/physics/rowValues';
+import { measureMissingPhysics, type QuasarMeasurer } from './measureMissing';
 
 export type ExportFormat = 'csv' | 'csv-plain' | 'json' | 'fits' | 'votable' | 'lines-csv';
 
@@ -42,6 +43,10 @@ export interface ExportSource {
   getResult: (key: string) => Promise<FitResult | undefined>;
   /** The review packet the batch came from: CSV and JSON exports carry it, so a team merge can take them. */
   team?: TeamTag | null;
+  /** Measures quasar decisions nobody measured at their z (measureMissing.ts); without it their cells stay empty with a note. */
+  measureQuasar?: QuasarMeasurer;
+  /** Progress of those measurements (called after each batch; not at all when none is needed). */
+  onMeasureProgress?: (done: number, total: number) => void;
 }
 
 export interface BuiltExport {
@@ -52,6 +57,9 @@ export interface BuiltExport {
   lineCount: number;
   /** Files left out because they have no fit yet. */
   notFitted: number;
+  /** Quasar decisions measured for this export, and those that could not be (their cells keep the note). */
+  physicsMeasured: number;
+  physicsUnmeasured: number;
 }
 
 export async function buildExport(
@@ -66,6 +74,9 @@ export async function buildExport(
   const lines: TableRow[][] = [];
   let notFitted = 0;
   let templateSet = '';
+  const missing = source.measureQuasar
+    ? await measureMissingPhysics(source.rows, source.getResult, source.measureQuasar, source.onMeasureProgress)
+    : { measured: new Map(), failed: 0 };
   for (const r of source.rows) {
     if (scope === 'reviewed' && (!r.decision || r.decision.state === 'unreviewed')) continue;
     const result = await source.getResult(r.key);
@@ -74,8 +85,10 @@ export async function buildExport(
       continue;
     }
     if (!templateSet && result.status === 'ok') templateSet = result.templateSet;
-    // A decision at a changed z brings its own quasar measurement (src/core/physics/rowValues.ts).
-    rows.push(catalogueRow(withDecisionPhysics(result, r.decision), r.decision, cosmology));
+    // A decision at a changed z brings its own quasar measurement (src/core/physics/rowValues.ts), or this export's.
+    const m = missing.measured.get(r.key);
+    const decision = m && r.decision ? decisionWithPhysics(r.decision, m) : r.decision;
+    rows.push(catalogueRow(withDecisionPhysics(result, decision), decision, cosmology));
     lines.push(lineRows(result));
   }
   const meta: ExportMeta = { software: 'Shiftmark', version: SOFTWARE_VERSION, templateSet: templateSet || 'none (no spectrum fitted)', cosmology, createdAt, extra: { engine: ENGINE_VERSION } };
@@ -110,5 +123,5 @@ export async function buildExport(
       data = catalogueVotable(rows, cols, meta, flat());
       break;
   }
-  return { data, rowCount: rows.length, lineCount, notFitted };
+  return { data, rowCount: rows.length, lineCount, notFitted, physicsMeasured: missing.measured.size, physicsUnmeasured: missing.failed };
 }

@@ -410,6 +410,28 @@ export class Session {
     this.quasarSeen.set(key, m);
   }
 
+  /**
+   * An export measured quasar physics for a decided row at its z: keep it with
+   * the decision (same decidedAt, so a bulk undo still recognises it) so the
+   * next export need not measure again. A decision at another z is left alone.
+   */
+  async keepQuasarMeasurement(key: string, m: QuasarMeasurement): Promise<void> {
+    const before = this.rowsByKey.get(key)?.decision;
+    if (!before) return;
+    const decision = decisionWithPhysics(before, m);
+    if (decision.quasar !== m) return;
+    try {
+      await this.db.putDecision(key, decision);
+    } finally {
+      const row = this.rowsByKey.get(key);
+      // Unless the reviewer decided again meanwhile.
+      if (row && row.decision === before) {
+        this.setRow({ ...row, decision });
+        this.notifySoon(); // an export keeps many in a burst
+      }
+    }
+  }
+
   /** Store a decision at once; the list shows it when the write has landed (or failed, with the banner). */
   async decide(key: string, given: ReviewDecision): Promise<void> {
     const row = this.rowsByKey.get(key);

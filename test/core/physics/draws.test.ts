@@ -12,37 +12,13 @@
  */
 import { describe, expect, it } from 'vitest';
 import { measureQuasar } from '../../../src/core/physics/measure';
-import { createRng } from '../../../src/core/sim/prng';
-import { C_KMS } from '../../../src/core/constants';
+import { gaussianKms, simQuasar } from './simQuasar';
 import type { Spectrum } from '../../../src/core/types';
-
-const FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);
 const DRAWS = 32;
 const REALISATIONS = 40;
 
-/**
- * A quasar at z = 1 (invented, seeded): power law f ~ lambda^-1.5 (10 file
- * units at 5100 A rest), one broad Gaussian H-beta 4862.68 A of FWHM 5000 km/s,
- * noise 1/15 of the continuum per pixel.
- */
-function quasar(seed: number): Spectrum {
-  const z = 1;
-  const n = 4600;
-  const rng = createRng(seed);
-  const wl = new Float64Array(n);
-  const flux = new Float64Array(n);
-  const ivar = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    wl[i] = 3600 * 10 ** (i * 1e-4);
-    const rest = wl[i] / (1 + z);
-    const cont = 10 * (rest / 5100) ** -1.5;
-    const line = 8 * Math.exp(-0.5 * ((C_KMS * Math.log(rest / 4862.68)) / (5000 / FWHM_PER_SIGMA)) ** 2);
-    const sigma = cont / 15;
-    flux[i] = cont + line + sigma * rng.gaussian();
-    ivar[i] = 1 / (sigma * sigma);
-  }
-  return { file: 'sim', format: 'test', wavelengthA: wl, flux, ivar, mask: new Uint8Array(n), meta: { fluxUnit: '1e-17 erg/s/cm2/A' } };
-}
+/** The simulated quasar with one broad H-beta 4862.68 A of FWHM 5000 km/s (8 file units high) at S/N 15. */
+const quasar = (seed: number) => simQuasar(seed, 15, (rest) => 8 * gaussianKms(rest, 4862.68, 5000));
 
 function sd(v: number[]): number {
   const m = v.reduce((s, x) => s + x, 0) / v.length;

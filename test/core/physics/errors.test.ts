@@ -16,40 +16,14 @@ import { describe, expect, it } from 'vitest';
 import { measureQuasar } from '../../../src/core/physics/measure';
 import { measureBal, outflowKms } from '../../../src/core/physics/bal';
 import { restData } from '../../../src/core/physics/restData';
+import { gaussianKms, simQuasar } from './simQuasar';
 import { createRng } from '../../../src/core/sim/prng';
-import { C_KMS } from '../../../src/core/constants';
-import type { Spectrum } from '../../../src/core/types';
 
 const N = 40;
-const FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);
 
-/** Gaussian of FWHM `fwhm` km/s about `centre` (rest Angstrom), peak 1. */
-function g(rest: number, centre: number, fwhm: number): number {
-  return Math.exp(-0.5 * ((C_KMS * Math.log(rest / centre)) / (fwhm / FWHM_PER_SIGMA)) ** 2);
-}
-
-/**
- * A quasar at z = 1 (invented, seeded): power law f ~ lambda^-1.5 (10 file
- * units at 5100 A rest), broad Mg II 2798.75 A and H-beta 4862.68 A, noise a
- * fixed fraction of the continuum.
- */
-function quasar(seed: number, snr: number, hbeta: (rest: number) => number): Spectrum {
-  const z = 1;
-  const n = 4600;
-  const rng = createRng(seed);
-  const wl = new Float64Array(n);
-  const flux = new Float64Array(n);
-  const ivar = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    wl[i] = 3600 * 10 ** (i * 1e-4);
-    const rest = wl[i] / (1 + z);
-    const cont = 10 * (rest / 5100) ** -1.5;
-    const sigma = cont / snr;
-    flux[i] = cont + 18 * g(rest, 2798.75, 4000) + 10 * hbeta(rest) + sigma * rng.gaussian();
-    ivar[i] = 1 / (sigma * sigma);
-  }
-  return { file: 'sim', format: 'test', wavelengthA: wl, flux, ivar, mask: new Uint8Array(n), meta: { fluxUnit: '1e-17 erg/s/cm2/A' } };
-}
+/** The simulated quasar with broad Mg II 2798.75 A (FWHM 4000 km/s) and the given H-beta profile, at S/N snr. */
+const g = gaussianKms;
+const quasar = (seed: number, snr: number, hbeta: (rest: number) => number) => simQuasar(seed, snr, (rest) => 18 * g(rest, 2798.75, 4000) + 10 * hbeta(rest));
 
 function spread(xs: number[]): number {
   const m = xs.reduce((a, b) => a + b, 0) / xs.length;

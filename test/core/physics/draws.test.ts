@@ -18,7 +18,7 @@ const DRAWS = 32;
 const REALISATIONS = 40;
 
 /** The simulated quasar with one broad H-beta 4862.68 A of FWHM 5000 km/s (8 file units high) at S/N 15. */
-const quasar = (seed: number) => simQuasar(seed, 15, (rest) => 8 * gaussianKms(rest, 4862.68, 5000));
+const quasar = (seed: number) => simQuasar(seed, 15, { lines: (rest) => 8 * gaussianKms(rest, 4862.68, 5000) });
 
 function sd(v: number[]): number {
   const m = v.reduce((s, x) => s + x, 0) / v.length;

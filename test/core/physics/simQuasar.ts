@@ -1,8 +1,8 @@
 /**
- * A simulated quasar at z = 1 for the physics tests (invented, seeded): a
- * power law f ~ lambda^-1.5 (10 file units at 5100 A rest) plus broad lines,
- * on a 4,600-pixel grid from 3600 A at 1e-4 in log10, with Gaussian noise a
- * fixed fraction 1/snr of the continuum.
+ * A simulated quasar (z = 1 by default) for the physics tests (invented, seeded): a
+ * power law f ~ lambda^-1.5 (10 file units at 5100 A rest, by default),
+ * absorbed and with broad lines as asked, on a grid from 3600 A at 1e-4 in
+ * log10, with Gaussian noise a fixed fraction 1/snr of the continuum.
  */
 import { createRng } from '../../../src/core/sim/prng';
 import { C_KMS } from '../../../src/core/constants';
@@ -15,10 +15,21 @@ export function gaussianKms(rest: number, centre: number, fwhm: number): number 
   return Math.exp(-0.5 * ((C_KMS * Math.log(rest / centre)) / (fwhm / FWHM_PER_SIGMA)) ** 2);
 }
 
-/** lines(rest) is the broad-line flux over the continuum at a rest wavelength, file units. */
-export function simQuasar(seed: number, snr: number, lines: (rest: number) => number): Spectrum {
-  const z = 1;
-  const n = 4600;
+export interface SimQuasarOptions {
+  /** Broad-line flux above the continuum at a rest wavelength, file units (default none). */
+  lines?: (rest: number) => number;
+  /** Fraction of the continuum transmitted at a rest wavelength (default 1: no absorption). */
+  transmission?: (rest: number) => number;
+  z?: number;
+  n?: number;
+  /** Rest wavelength where the continuum is 10 file units (default 5100 A). */
+  refA?: number;
+}
+
+export function simQuasar(seed: number, snr: number, o: SimQuasarOptions = {}): Spectrum {
+  const z = o.z ?? 1;
+  const n = o.n ?? 4600;
+  const refA = o.refA ?? 5100;
   const rng = createRng(seed);
   const wl = new Float64Array(n);
   const flux = new Float64Array(n);
@@ -26,9 +37,9 @@ export function simQuasar(seed: number, snr: number, lines: (rest: number) => nu
   for (let i = 0; i < n; i++) {
     wl[i] = 3600 * 10 ** (i * 1e-4);
     const rest = wl[i] / (1 + z);
-    const cont = 10 * (rest / 5100) ** -1.5;
+    const cont = 10 * (rest / refA) ** -1.5;
     const sigma = cont / snr;
-    flux[i] = cont + lines(rest) + sigma * rng.gaussian();
+    flux[i] = cont * (o.transmission ? o.transmission(rest) : 1) + (o.lines ? o.lines(rest) : 0) + sigma * rng.gaussian();
     ivar[i] = 1 / (sigma * sigma);
   }
   return { file: 'sim', format: 'test', wavelengthA: wl, flux, ivar, mask: new Uint8Array(n), meta: { fluxUnit: '1e-17 erg/s/cm2/A' } };

@@ -17,6 +17,8 @@ export class FitWorkspace {
   /** Data transforms of the spectrum being fitted (keyed by its ScanData object; dropped with it). */
   private dataOwner: ScanData | null = null;
   private readonly dataByL = new Map<number, DataSpectra>();
+  /** One buffer for the per-shift sums of the scan being read (correlationSums), grown as needed. */
+  private sums = new Float64Array(0);
   /** Binned copies of family vectors, by family object and binning. */
   private readonly binned = new WeakMap<Family, Map<string, { kStart: number; vectors: Float64Array[] }>>();
 
@@ -53,6 +55,16 @@ export class FitWorkspace {
       this.dataByL.set(L, d);
     }
     return d;
+  }
+
+  /**
+   * Room for `length` per-shift sums, reused from scan to scan: the sums are
+   * read once, right after they are made, and reusing one buffer spares the
+   * garbage collector tens of arrays per fit. Valid until the next call.
+   */
+  sumsBuffer(length: number): Float64Array {
+    if (this.sums.length < length) this.sums = new Float64Array(Math.max(length, 2 * this.sums.length));
+    return this.sums;
   }
 
   /** Forget the last spectrum's data transforms (call when a fit ends). */

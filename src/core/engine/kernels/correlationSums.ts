@@ -21,7 +21,7 @@ export interface ScanData {
   wq: Float64Array[];
 }
 
-/** Sums over shifts s = sLo .. sHi (index s - sLo). */
+/** Sums over shifts s = sLo .. sHi (index s - sLo); from correlationSums, views of the workspace's buffer, valid until its next scan. */
 export interface ShiftSums {
   nShift: number;
   /** [j * K + l] (both orders point at the same array). */
@@ -65,12 +65,20 @@ export function correlationSums(
   const K = vectors.length;
   const P = data.wq.length;
   const nShift = sHi - sLo + 1;
-  const zero = () => new Float64Array(nShift);
+  // every destination is a slice of the workspace's sums buffer (valid until the next scan)
+  const buf = ws.sumsBuffer((K * (K + 1)) / 2 * nShift + K * nShift + K * P * nShift);
+  let used = 0;
+  const zero = () => {
+    const d = buf.subarray(used, used + nShift);
+    used += nShift;
+    return d;
+  };
   const geo = geometry(kStart, vectors[0].length, data.d0, data.w.length, sLo, sHi);
   const tt: Float64Array[] = new Array(K * K);
   const tf: Float64Array[] = [];
   const tq: Float64Array[] = [];
   if (!geo) {
+    buf.fill(0, 0, ((K * (K + 1)) / 2 + K + K * P) * nShift);
     for (let j = 0; j < K; j++) for (let l = 0; l <= j; l++) tt[j * K + l] = tt[l * K + j] = zero();
     for (let j = 0; j < K; j++) tf.push(zero());
     for (let j = 0; j < K * P; j++) tq.push(zero());

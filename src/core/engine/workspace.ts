@@ -17,6 +17,8 @@ export class FitWorkspace {
   /** Data transforms of the spectrum being fitted (keyed by its ScanData object; dropped with it). */
   private dataOwner: ScanData | null = null;
   private readonly dataByL = new Map<number, DataSpectra>();
+  /** Arrays for the data side's half spectra, by FFT size (the current spectrum's; see dataSpectra). */
+  private readonly halves = new Map<number, HalfSpectrum[]>();
   /** One buffer for the per-shift sums of the scan being read (correlationSums), grown as needed. */
   private sums = new Float64Array(0);
   /** Binned copies of family vectors, by family object and binning. */
@@ -65,6 +67,22 @@ export class FitWorkspace {
   sumsBuffer(length: number): Float64Array {
     if (this.sums.length < length) this.sums = new Float64Array(Math.max(length, 2 * this.sums.length));
     return this.sums;
+  }
+
+  /**
+   * `count` half-spectrum arrays for FFT size L, reused from spectrum to
+   * spectrum: only the data transforms of the spectrum being fitted use them
+   * (dataSpectra keeps one spectrum's at a time, and a new spectrum's
+   * overwrite them).
+   */
+  halfSpectra(L: number, count: number): HalfSpectrum[] {
+    let h = this.halves.get(L);
+    if (!h) {
+      h = [];
+      this.halves.set(L, h);
+    }
+    while (h.length < count) h.push(new Float64Array(L + 2));
+    return h;
   }
 
   /** Forget the last spectrum's data transforms (call when a fit ends). */

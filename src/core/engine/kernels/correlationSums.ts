@@ -86,7 +86,7 @@ export function correlationSums(
   }
   const plan = ws.plan(geo.L);
   const tmpl = ws.templateSpectra(`${familyKey}|${geo.L}|${geo.t0}|${geo.len}`, () => templateSpectra(plan, vectors, geo));
-  const dat = ws.dataSpectra(data, geo.L, () => dataSpectra(plan, data));
+  const dat = ws.dataSpectra(data, geo.L, () => dataSpectra(ws, plan, data));
   // Every correlation to take: [template spectrum, data spectrum, destination].
   const jobs: [HalfSpectrum, HalfSpectrum, Float64Array][] = [];
   let p = 0;
@@ -143,16 +143,18 @@ export interface DataSpectra {
   wq: HalfSpectrum[];
 }
 
-function dataSpectra(plan: CorrelationPlan, data: ScanData): DataSpectra {
-  const all = transformAll(plan, [data.w, data.wf, ...data.wq]);
+/** The data side's half spectra, written into arrays the workspace lends per FFT size (they live as long as the spectrum's fit). */
+function dataSpectra(ws: FitWorkspace, plan: CorrelationPlan, data: ScanData): DataSpectra {
+  const signals = [data.w, data.wf, ...data.wq];
+  const all = transformAll(plan, signals, ws.halfSpectra(plan.size, signals.length + 1));
   return { w: all[0], wf: all[1], wq: all.slice(2) };
 }
 
-/** Half spectra of real signals, two per complex FFT. */
-function transformAll(plan: CorrelationPlan, signals: Float64Array[]): HalfSpectrum[] {
+/** Half spectra of real signals, two per complex FFT; into `into` when given (one more array than signals, for an odd count). */
+function transformAll(plan: CorrelationPlan, signals: Float64Array[], into?: HalfSpectrum[]): HalfSpectrum[] {
   const out: HalfSpectrum[] = [];
   for (let i = 0; i < signals.length; i += 2) {
-    const [a, b] = plan.forwardPair(signals[i], signals[i + 1]);
+    const [a, b] = plan.forwardPair(signals[i], signals[i + 1], into?.[i], into?.[i + 1]);
     out.push(a);
     if (i + 1 < signals.length) out.push(b);
   }

@@ -92,7 +92,7 @@ export function scoreMinimum(
   const f = scan.family;
   const full = ws.binnedVectors(f, 'full', scoreBinning, () => binVectors(f.vectors, f.kStart, scoreBinning));
   const v = scanVertex(scan, s);
-  const fit = evaluateAt(scoring, full.vectors, full.kStart, f.nonNegative, Math.round(v.fineShift / scoreBinning), f.polynomialFromA);
+  const fit = evaluateAt(scoring, full.vectors, full.kStart, f.nonNegative, Math.round(v.fineShift / scoreBinning), f.polynomialFromA, ws);
   const z = zOfShift(v.fineShift, DLOG10);
   const zErr = v.sigma * dzPerPixel(z, DLOG10) * Math.sqrt(reducedChi2(fit, scoring.nGood));
   const atEdge = (range.edgeLo && v.fineShift <= range.lo + scan.binning) || (range.edgeHi && v.fineShift >= range.hi - scan.binning);
@@ -121,7 +121,7 @@ export function refineCandidate(ws: FitWorkspace, data: WeightedData, binning: n
   const dataAt = forest ? (s: number) => withForestVariance(data, combined, vec.kStart, s) : () => data;
   const lo = Math.ceil(c.range.lo / binning);
   const hi = Math.floor(c.range.hi / binning);
-  const m = refineOnFine(dataAt, combined, vec.kStart, c.fineShift / binning, lo, hi, f.polynomialFromA);
+  const m = refineOnFine(dataAt, combined, vec.kStart, c.fineShift / binning, lo, hi, f.polynomialFromA, ws);
   if (!Number.isFinite(m.sigmaShift)) return c; // no curvature: keep the scan's estimate
   const shift = m.shift * binning;
   const z = zOfShift(shift, DLOG10);

@@ -6,6 +6,7 @@
  */
 import { makeShiftSolver, solveShift } from './kernels/shiftSolve';
 import type { WeightedData } from './scanData';
+import type { FitWorkspace } from './workspace';
 
 export interface ModelFit {
   shift: number;
@@ -26,13 +27,13 @@ export interface ModelFit {
  * polynomial acts only at rest wavelengths >= this (a quasar has no flux of
  * its own below the Lyman limit, so no free continuum may put any there).
  */
-export function evaluateAt(data: WeightedData, vectors: Float64Array[], kStart: number, nonNegative: readonly boolean[], shift: number, polyFromA?: number): ModelFit {
-  if (polyFromA !== undefined) return evaluateGatedAt(data, vectors, kStart, nonNegative, shift, Math.ceil(Math.log10(polyFromA) / data.dlog10));
+export function evaluateAt(data: WeightedData, vectors: Float64Array[], kStart: number, nonNegative: readonly boolean[], shift: number, polyFromA?: number, ws?: FitWorkspace): ModelFit {
+  if (polyFromA !== undefined) return evaluateGatedAt(data, vectors, kStart, nonNegative, shift, Math.ceil(Math.log10(polyFromA) / data.dlog10), ws);
   const K = vectors.length;
   const P = data.q.length;
   const solver = makeShiftSolver(K, P);
   const cols = vectorColumns(data, vectors, kStart, shift);
-  modelSums(data.w, data.flux, cols, solver.tt, solver.tf);
+  modelSums(data.w, data.flux, cols, solver.tt, solver.tf, ws);
   // TQ_ja = sum w t_j q_a over t_j's range
   for (let j = 0; j < K; j++) {
     const c = cols[j];
@@ -50,7 +51,7 @@ export function evaluateAt(data: WeightedData, vectors: Float64Array[], kStart: 
 }
 
 /** evaluateAt with the polynomial gated: it becomes P ordinary columns q_a(i) [rest pixel >= polyFromK], solved together with the vectors. */
-function evaluateGatedAt(data: WeightedData, vectors: Float64Array[], kStart: number, nonNegative: readonly boolean[], shift: number, polyFromK: number): ModelFit {
+function evaluateGatedAt(data: WeightedData, vectors: Float64Array[], kStart: number, nonNegative: readonly boolean[], shift: number, polyFromK: number, ws?: FitWorkspace): ModelFit {
   const K = vectors.length;
   const P = data.q.length;
   const n = data.w.length;
@@ -58,7 +59,7 @@ function evaluateGatedAt(data: WeightedData, vectors: Float64Array[], kStart: nu
   const cols = vectorColumns(data, vectors, kStart, shift);
   const gateFrom = Math.max(0, Math.min(n, polyFromK - data.d0 + shift));
   for (let a = 0; a < P; a++) cols.push({ src: data.q[a], off: 0, lo: gateFrom, hi: n });
-  modelSums(data.w, data.flux, cols, solver.tt, solver.tf);
+  modelSums(data.w, data.flux, cols, solver.tt, solver.tf, ws);
   // data.w may carry extra variance (the forest) that data.F does not know of
   let F = 0;
   for (let i = 0; i < n; i++) F += data.w[i] * data.flux[i] * data.flux[i];
@@ -96,12 +97,12 @@ function vectorColumns(data: WeightedData, vectors: Float64Array[], kStart: numb
  * overlap only. Fast kernel: w c_l is formed once per column, so every sum
  * is a plain dot product.
  */
-function modelSums(w: Float64Array, flux: Float64Array, cols: Column[], tt: Float64Array, tf: Float64Array): void {
+function modelSums(w: Float64Array, flux: Float64Array, cols: Column[], tt: Float64Array, tf: Float64Array, ws?: FitWorkspace): void {
   const M = cols.length;
-  // w c_l for every column, packed in one array (column l from start[l])
+  // w c_l for every column, packed in one array (column l from start[l]); the workspace lends it when there is one
   const start = new Int32Array(M + 1);
   for (let l = 0; l < M; l++) start[l + 1] = start[l] + Math.max(0, cols[l].hi - cols[l].lo);
-  const wc = new Float64Array(start[M]);
+  const wc = ws ? ws.modelBuffer(start[M]) : new Float64Array(start[M]);
   for (let l = 0; l < M; l++) {
     const c = cols[l];
     const o = start[l] - c.lo;

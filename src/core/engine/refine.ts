@@ -9,6 +9,7 @@
 import { evaluateAt } from './model';
 import { parabolaVertex } from './parabola';
 import type { WeightedData } from './scanData';
+import type { FitWorkspace } from './workspace';
 
 /** Most fine-pixel steps the walk takes from its start. */
 const MAX_WALK = 12;
@@ -24,13 +25,13 @@ export interface FineMinimum {
 }
 
 /** dataAt(shift): the fine data with the weights that hold at that shift (the same object for most families). */
-export function refineOnFine(dataAt: (shift: number) => WeightedData, combined: Float64Array, kStart: number, start: number, lo: number, hi: number, polyFromA?: number): FineMinimum {
+export function refineOnFine(dataAt: (shift: number) => WeightedData, combined: Float64Array, kStart: number, start: number, lo: number, hi: number, polyFromA?: number, ws?: FitWorkspace): FineMinimum {
   const cache = new Map<number, number>();
   const at = (s: number): number => {
     if (s < lo || s > hi) return Infinity;
     let c = cache.get(s);
     if (c === undefined) {
-      c = evaluateAt(dataAt(s), [combined], kStart, [false], s, polyFromA).chi2;
+      c = evaluateAt(dataAt(s), [combined], kStart, [false], s, polyFromA, ws).chi2;
       cache.set(s, c);
     }
     return c;

@@ -19,6 +19,8 @@ export class FitWorkspace {
   private readonly dataByL = new Map<number, DataSpectra>();
   /** Arrays for the data side's half spectra, by FFT size (the current spectrum's; see dataSpectra). */
   private readonly halves = new Map<number, HalfSpectrum[]>();
+  /** Scratch for the weighted columns of one full-model evaluation (model.ts), grown as needed. */
+  private model = new Float64Array(0);
   /** One buffer for the per-shift sums of the scan being read (correlationSums), grown as needed. */
   private sums = new Float64Array(0);
   /** Binned copies of family vectors, by family object and binning. */
@@ -67,6 +69,12 @@ export class FitWorkspace {
   sumsBuffer(length: number): Float64Array {
     if (this.sums.length < length) this.sums = new Float64Array(Math.max(length, 2 * this.sums.length));
     return this.sums;
+  }
+
+  /** Room for `length` weighted model columns, reused by every full-model evaluation (each reads it only while it runs). */
+  modelBuffer(length: number): Float64Array {
+    if (this.model.length < length) this.model = new Float64Array(Math.max(length, 2 * this.model.length));
+    return this.model;
   }
 
   /**

@@ -15,6 +15,12 @@ import { physicsModelAt, troughMaskRangesA } from '../../core/physics/draw';
 import { useServices } from '../state/SessionContext';
 import { fmtNum, fmtZ } from '../format';
 
+/** An error too small to show at `decimals` reads '< 0.01' rather than a misleading '0.00'. */
+export function fmtErr(err: number, decimals: number): string {
+  const step = 10 ** -decimals;
+  return err > 0 && err < step / 2 ? `< ${step.toFixed(decimals)}` : fmtNum(err, decimals);
+}
+
 export interface QuasarPhysicsBoxProps {
   rowKey: string;
   z: number | null;
@@ -107,7 +113,7 @@ export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, 
               return (
                 <div key={a} style={{ display: 'contents' }}>
                   <dt>log λL<sub>{a}</sub></dt>
-                  <dd>{'value' in L ? `${fmtNum(L.value, 2)} ± ${fmtNum(L.err, 2)} [erg/s]` : <span className="muted">{L.reason}</span>}</dd>
+                  <dd>{'value' in L ? `${fmtNum(L.value, 2)} ± ${fmtErr(L.err, 2)} [erg/s]` : <span className="muted">{L.reason}</span>}</dd>
                 </div>
               );
             })}
@@ -123,7 +129,7 @@ export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, 
               <div key={e.id} style={{ display: 'contents' }}>
                 <dt title={e.source}>log M<sub>BH</sub> {e.id}{q.preferred?.id === e.id ? ' (preferred)' : ''}</dt>
                 <dd>
-                  {fmtNum(e.logM, 2)} ± {fmtNum(e.logMErr, 2)} stat. {sys}
+                  {fmtNum(e.logM, 2)} ± {fmtErr(e.logMErr, 2)} stat. {sys}
                 </dd>
               </div>
             ))}
@@ -137,7 +143,7 @@ export function QuasarPhysicsBox({ rowKey, z, cls, ready, cosmology, onTroughs, 
               <>
                 <dt>log L<sub>bol</sub>/L<sub>Edd</sub></dt>
                 <dd>
-                  {fmtNum(q.logEddRatio.value, 2)} ± {fmtNum(q.logEddRatio.err, 2)} {sys}
+                  {fmtNum(q.logEddRatio.value, 2)} ± {fmtErr(q.logEddRatio.err, 2)} {sys}
                 </dd>
               </>
             )}

@@ -2,7 +2,7 @@
 import { describe, it, expect, afterEach, vi } from 'vitest';
 import { render, screen, cleanup, fireEvent, waitFor } from '@testing-library/react';
 import { ServicesContext } from '../../../src/ui/state/SessionContext';
-import { QuasarPhysicsBox } from '../../../src/ui/physics/QuasarPhysicsBox';
+import { QuasarPhysicsBox, fmtErr } from '../../../src/ui/physics/QuasarPhysicsBox';
 import { fakeReview } from '../harness';
 import { makeResult } from '../fixtures';
 import type { QuasarMeasurement } from '../../../src/core/physics/types';
@@ -87,5 +87,14 @@ describe('QuasarPhysicsBox', () => {
       </ServicesContext.Provider>,
     );
     expect(screen.queryByTestId('physics-box')).toBeNull();
+  });
+});
+
+describe('fmtErr', () => {
+  it('shows an error below half the last shown digit as "< 0.01", not a misleading 0.00', () => {
+    expect(fmtErr(0.001, 2)).toBe('< 0.01');
+    expect(fmtErr(0.004999, 2)).toBe('< 0.01');
+    expect(fmtErr(0.02, 2)).toBe('0.02');
+    expect(fmtErr(3.7, 0)).toBe('4');
   });
 });

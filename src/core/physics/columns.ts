@@ -15,6 +15,7 @@ const SYS = 'single-epoch masses carry about 0.4 dex systematic uncertainty (log
 export const PHYSICS_COLUMN_DEFS = [
   { name: 'qso_phys_z', unit: '', type: 'float', decimals: 6, group: 'physics', ucd: 'src.redshift', description: 'Redshift the quasar quantities were measured at; empty when none were' },
   { name: 'qso_phys_note', unit: '', type: 'text', group: 'physics', ucd: 'meta.note', description: 'Why quasar quantities are missing (e.g. flux not calibrated, line not covered); empty when all were measured' },
+  { name: 'qso_phys_draws', unit: '', type: 'int', group: 'physics', ucd: 'meta.number', description: 'Resampled spectra behind the quasar errors: 0 when they come from the fits\' covariances alone (the batch), more when a reviewer asked for errors by resampling' },
   ...([1350, 3000, 5100] as const).flatMap((a) => [
     { name: `loglam${a}`, unit: 'log(erg/s)', type: 'float', decimals: 3, group: 'physics', ucd: 'phys.luminosity', description: `log10 lambda L_lambda of the power-law continuum at ${a} A rest, erg/s; not corrected for extinction or host light` },
     { name: `loglam${a}_err`, unit: 'log(erg/s)', type: 'float', decimals: 3, group: 'physics', ucd: 'stat.error;phys.luminosity', description: `1-sigma statistical error of loglam${a}, dex (fit or resampling, the larger; flux calibration not included)` },

@@ -48,7 +48,7 @@ export function physicsCells(result: FitResult, z: number | null | undefined, cl
   if (!m) return { qso_phys_note: result.class === 'qso' ? 'not measured (fitted before quasar physics existed)' : 'not measured: the automatic fit was not a quasar; open it in review to measure' };
   if (Math.abs(m.z - z) > SAME_Z) return { qso_phys_note: `measured at z = ${m.z.toFixed(5)}, not at this row's z; open it in review to measure again` };
   const q = quasarQuantities(m, cosmo);
-  const v: Record<string, Cell> = { qso_phys_z: m.z };
+  const v: Record<string, Cell> = { qso_phys_z: m.z, qso_phys_draws: m.draws };
   const notes: string[] = [];
   if (!m.fluxScale.ok) notes.push(`no luminosities: ${m.fluxScale.reason}`);
   for (const a of [1350, 3000, 5100] as const) {

@@ -21,10 +21,12 @@ describe('physics cells of an export row', () => {
     for (const c of ['loglam5100', 'loglam5100_err', 'log_mbh', 'log_mbh_hbeta_vp06', 'log_lbol', 'log_edd_ratio']) expect(row[c], c).toBe('');
     expect(row.qso_phys_note).toContain('no luminosities: the file states no flux unit');
     expect(row.qso_phys_z).toBe('0.100000');
+    expect(row.qso_phys_draws).toBe('0'); // errors from the fits alone
   });
   it('SDSS (1e-17 erg/s/cm2/A): luminosities, an H-beta and Mg II mass with the 0.4 dex systematic beside it', () => {
     const s = read('fits', 'spec-3655-55240-0436.fits');
     const row = automaticRow(asQuasarFit('sdss.fits', 0.876162, measureQuasar(s, 0.876162, { draws: 2 })), COSMO);
+    expect(row.qso_phys_draws).toBe('2'); // the export says the errors came from 2 resampled spectra
     expect(Number(row.loglam3000)).toBeGreaterThan(44);
     expect(Number(row.loglam3000)).toBeLessThan(47);
     expect(row.log_mbh_from).toBe('mgii_s11'); // 0.7 <= z < 1.9 (Shen et al. 2011 rule)

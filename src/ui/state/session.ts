@@ -5,6 +5,9 @@
  * there first and then shown. Components read it through useSession
  * (useSyncExternalStore); the worker pool and the database are injected, so
  * tests run it with fakes.
+ * Over 300 lines: every change goes through the one write-first path to
+ * IndexedDB kept here; the row bookkeeping and persistence helpers live in
+ * spectrumRows.ts and ../persist/.
  */
 import type { CosmologyParams, FitResult, ReviewDecision } from '../../core/types';
 import { DEFAULT_COSMOLOGY, checkCosmology } from '../../core/cosmology';

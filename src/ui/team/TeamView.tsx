@@ -3,6 +3,7 @@
  * reviewers' saved sessions; walk the disagreements (filter, j/k, number
  * keys take a reviewer's verdict) and settle them; statistics; export.
  */
+import { ChoiceSelect } from '../controls/ChoiceSelect';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { useServices, useSessionSnapshot } from '../state/SessionContext';
 import { PacketMaker } from './PacketMaker';
@@ -183,16 +184,7 @@ export function TeamView() {
         <section>
           <h3>Verdicts side by side</h3>
           <div className="toolbar">
-            <label>
-              Show{' '}
-              <select value={filter} onChange={(e) => setFilter(e.target.value as TeamFilter)} aria-label="Team filter">
-                {FILTERS.map((f) => (
-                  <option key={f.id} value={f.id}>
-                    {f.label}
-                  </option>
-                ))}
-              </select>
-            </label>
+            <ChoiceSelect label="Show" ariaLabel="Team filter" choices={FILTERS} value={filter} onChange={setFilter} />
             <span className="muted small">
               <kbd>j</kbd>/<kbd>k</kbd> next / previous, <kbd>n</kbd> next open disagreement, <kbd>1</kbd>-<kbd>9</kbd> take that reviewer&apos;s verdict
             </span>

@@ -10,6 +10,7 @@ import React, { useCallback, useEffect, useMemo, useRef, useState } from 'react'
 import type { ReviewDecision } from '../../core/types';
 import { useServices, useSessionSnapshot } from '../state/SessionContext';
 import { SpectrumList } from '../list/SpectrumList';
+import { ChoiceSelect } from '../controls/ChoiceSelect';
 import { FILTERS, SORTS, bulkAcceptable, cycle, findByName, isFailure, nextUnreviewed, reviewState, viewRows, type ListFilter, type ListSort } from '../list/listView';
 import { bulkAcceptDraft } from '../review/solution';
 import type { Row } from '../state/session';
@@ -279,26 +280,8 @@ export function Workbench({ onCollected, onDemo, onExportSession }: WorkbenchPro
   return (
     <main className="workbench">
       <div className="toolbar" role="toolbar" aria-label="Workbench">
-        <label>
-          Show{' '}
-          <select value={filter} onChange={(e) => setFilter(e.target.value as ListFilter)} aria-label="Filter">
-            {FILTERS.map((f) => (
-              <option key={f.id} value={f.id}>
-                {f.label}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label>
-          Order{' '}
-          <select value={sort} onChange={(e) => setSort(e.target.value as ListSort)} aria-label="Order">
-            {SORTS.map((s) => (
-              <option key={s.id} value={s.id}>
-                {s.label}
-              </option>
-            ))}
-          </select>
-        </label>
+        <ChoiceSelect label="Show" ariaLabel="Filter" choices={FILTERS} value={filter} onChange={setFilter} />
+        <ChoiceSelect label="Order" ariaLabel="Order" choices={SORTS} value={sort} onChange={setSort} />
         <form
           className="inline-form jump-form"
           onSubmit={(e) => {

@@ -17,9 +17,9 @@ export { C_KMS };
 /** Velocity width of one pixel, km/s: c ln(10) DLOG10 = 69.0298 km/s (docs/reference.md sec. 3). */
 export const KMS_PER_PIXEL = C_KMS * Math.LN10 * DLOG10;
 
-/** Centre wavelength of absolute pixel k (fractional k allowed), Angstrom. */
+/** Centre wavelength of absolute pixel k (fractional k allowed), Angstrom. Math.exp, not Math.pow(10, .): the same to a few ulp and several times faster in V8. */
 export function wavelengthOfPixel(k: number, dlog10 = DLOG10): number {
-  return Math.pow(10, k * dlog10);
+  return Math.exp(k * dlog10 * Math.LN10);
 }
 
 /** Fractional absolute pixel coordinate of a wavelength in Angstrom. */
@@ -27,9 +27,9 @@ export function pixelOfWavelength(lambdaA: number, dlog10 = DLOG10): number {
   return Math.log10(lambdaA) / dlog10;
 }
 
-/** Redshift of a shift of n pixels (fractional allowed): 1 + z = 10^(n dlog10). */
+/** Redshift of a shift of n pixels (fractional allowed): 1 + z = 10^(n dlog10), as expm1 (exact near z = 0, and much faster than Math.pow). */
 export function zOfShift(n: number, dlog10 = DLOG10): number {
-  return Math.pow(10, n * dlog10) - 1;
+  return Math.expm1(n * dlog10 * Math.LN10);
 }
 
 /** Shift in pixels (fractional) that corresponds to redshift z. */

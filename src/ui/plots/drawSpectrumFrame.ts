@@ -107,43 +107,22 @@ export function drawSpectrumFrame(ctx: Canvas2DLike, f: SpectrumFrame): FrameSta
     ctx.globalAlpha = 1;
   }
 
-  ctx.strokeStyle = SPECTRUM_COLOURS.flux;
-  ctx.lineWidth = 1;
-  ctx.beginPath();
-  if (byColumns) traceColumns(ctx, decimateMinMax(w, f.series.flux, x0, x1, nCols), colX, Y);
-  else tracePoints(ctx, w, f.series.flux, i0, i1, X, Y);
-  ctx.stroke();
-
-  if (f.compareModel && f.compareModel.length === w.length) {
-    ctx.strokeStyle = SPECTRUM_COLOURS.compare;
-    ctx.lineWidth = 1.5;
-    ctx.setLineDash([6, 4]);
+  // One way to draw every curve: min/max per column when zoomed out, the points when zoomed in.
+  const curve = (y: Float64Array | null | undefined, colour: string, width: number, dash: number[] = []) => {
+    if (!y || y.length !== w.length) return;
+    ctx.strokeStyle = colour;
+    ctx.lineWidth = width;
+    ctx.setLineDash(dash);
     ctx.beginPath();
-    if (byColumns) traceColumns(ctx, decimateMinMax(w, f.compareModel, x0, x1, nCols), colX, Y);
-    else tracePoints(ctx, w, f.compareModel, i0, i1, X, Y);
+    if (byColumns) traceColumns(ctx, decimateMinMax(w, y, x0, x1, nCols), colX, Y);
+    else tracePoints(ctx, w, y, i0, i1, X, Y);
     ctx.stroke();
     ctx.setLineDash([]);
-  }
-
-  if (f.model && f.model.length === w.length) {
-    ctx.strokeStyle = SPECTRUM_COLOURS.model;
-    ctx.lineWidth = 1.5;
-    ctx.beginPath();
-    if (byColumns) traceColumns(ctx, decimateMinMax(w, f.model, x0, x1, nCols), colX, Y);
-    else tracePoints(ctx, w, f.model, i0, i1, X, Y);
-    ctx.stroke();
-  }
-
-  if (f.physicsModel && f.physicsModel.length === w.length) {
-    ctx.strokeStyle = SPECTRUM_COLOURS.physics;
-    ctx.lineWidth = 2.5;
-    ctx.setLineDash([5, 3]);
-    ctx.beginPath();
-    if (byColumns) traceColumns(ctx, decimateMinMax(w, f.physicsModel, x0, x1, nCols), colX, Y);
-    else tracePoints(ctx, w, f.physicsModel, i0, i1, X, Y);
-    ctx.stroke();
-    ctx.setLineDash([]);
-  }
+  };
+  curve(f.series.flux, SPECTRUM_COLOURS.flux, 1);
+  curve(f.compareModel, SPECTRUM_COLOURS.compare, 1.5, [6, 4]);
+  curve(f.model, SPECTRUM_COLOURS.model, 1.5);
+  curve(f.physicsModel, SPECTRUM_COLOURS.physics, 2.5, [5, 3]);
   ctx.restore();
   return { mode: byColumns ? 'columns' : 'points', visiblePoints: visible, columns: nCols };
 }

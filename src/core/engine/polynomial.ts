@@ -1,57 +1,59 @@
 /**
  * The continuum polynomial in the observed frame, made orthonormal under the
- * data's weights (Gram-Schmidt on Legendre polynomials of the pixel index
- * scaled to [-1, 1]). With an orthonormal basis the polynomial drops out of
+ * data's weights (polynomials of the pixel index scaled to [-1, 1]). With an
+ * orthonormal basis the polynomial drops out of
  * every per-shift solve as a fixed projection (kernels/shiftSolve.ts).
  */
 
-/** Plain Legendre basis P_0..P_{P-1} over n pixels, x = pixel index scaled to [-1, 1] (Bonnet's recursion, one polynomial at a time). */
-export function polyBasis(n: number, P: number): Float64Array[] {
-  const basis: Float64Array[] = [];
+/**
+ * P polynomials q_a of degree a in x (the pixel index scaled to [-1, 1])
+ * with sum_i w_i q_a(i) q_b(i) = delta_ab, by the three-term recurrence of
+ * orthogonal polynomials (Stieltjes procedure; Gautschi 2004, Orthogonal
+ * Polynomials: Computation and Approximation, sec. 2.2.3):
+ *   v = x q_k - a_k q_k - b_k q_(k-1),  a_k = <x q_k, q_k>,  b_k = |v_(k-1)|,
+ *   q_(k+1) = v / |v|.
+ * These are the polynomials Gram-Schmidt gives from 1, x, x^2, ... (unique
+ * up to sign; here the leading coefficient is positive), in three passes
+ * over the pixels per term instead of one per pair of terms. A term whose
+ * norm falls below 1e-10 of |x q_k| is degenerate under the weights (too few
+ * good pixels for that degree) and ends the list, so fewer than P may come
+ * back.
+ */
+export function weightedOrthonormalPolys(w: Float64Array, P: number): Float64Array[] {
+  const n = w.length;
+  const out: Float64Array[] = [];
+  if (P < 1) return out;
   const x = new Float64Array(n);
   for (let i = 0; i < n; i++) x[i] = n > 1 ? (2 * i) / (n - 1) - 1 : 0;
-  for (let a = 0; a < P; a++) {
-    const out = new Float64Array(n);
-    if (a === 0) out.fill(1);
-    else if (a === 1) out.set(x);
-    else {
-      const p1 = basis[a - 1];
-      const p2 = basis[a - 2];
-      for (let i = 0; i < n; i++) out[i] = ((2 * a - 1) * x[i] * p1[i] - (a - 1) * p2[i]) / a;
-    }
-    basis.push(out);
-  }
-  return basis;
-}
-
-/**
- * P polynomials q_a with sum_i w_i q_a(i) q_b(i) = delta_ab (modified
- * Gram-Schmidt). Terms that are degenerate under the weights (too few good
- * pixels) are dropped, so fewer than P may come back.
- */
-export function weightedOrthonormalPolys(w: Float64Array, P: number, raw: Float64Array[] = polyBasis(w.length, P)): Float64Array[] {
-  const out: Float64Array[] = [];
-  const n = w.length;
-  // Weights are >= 0 and the polynomials finite, so pixels with w = 0 add
-  // exact zeros: the sums run over every pixel without a branch.
-  for (const v of raw.slice(0, P)) {
-    const u = Float64Array.from(v);
-    for (const q of out) {
-      let d = 0;
-      for (let i = 0; i < n; i++) d += w[i] * u[i] * q[i];
-      for (let i = 0; i < n; i++) u[i] -= d * q[i];
-    }
-    let nn = 0;
-    let raw2 = 0;
+  let sw = 0;
+  for (let i = 0; i < n; i++) sw += w[i];
+  if (!(sw > 0)) return out;
+  const q0 = new Float64Array(n).fill(1 / Math.sqrt(sw));
+  out.push(q0);
+  let bPrev = 0;
+  for (let k = 0; k + 1 < P; k++) {
+    const qk = out[k];
+    const qm = k > 0 ? out[k - 1] : null;
+    let a = 0;
+    let xq2 = 0;
     for (let i = 0; i < n; i++) {
-      const wi = w[i];
-      nn += wi * u[i] * u[i];
-      raw2 += wi * v[i] * v[i];
+      const t = x[i] * qk[i];
+      a += w[i] * t * qk[i];
+      xq2 += w[i] * t * t;
     }
-    if (!(nn > 1e-10 * raw2)) continue;
-    const s = 1 / Math.sqrt(nn);
-    for (let i = 0; i < u.length; i++) u[i] *= s;
-    out.push(u);
+    const v = new Float64Array(n);
+    let nn = 0;
+    for (let i = 0; i < n; i++) {
+      const vi = (x[i] - a) * qk[i] - (qm ? bPrev * qm[i] : 0);
+      v[i] = vi;
+      nn += w[i] * vi * vi;
+    }
+    if (!(nn > 1e-10 * xq2)) break;
+    const norm = Math.sqrt(nn);
+    const inv = 1 / norm;
+    for (let i = 0; i < n; i++) v[i] *= inv;
+    out.push(v);
+    bPrev = norm;
   }
   return out;
 }

@@ -26,8 +26,7 @@ export interface WeightedData extends ScanData {
 }
 
 /** `windowed`: pad to WINDOW_A (scan data); otherwise the data's own span (fine refinement). */
-/** rawPolys: Legendre basis over d.flux.length pixels (polyBasis), when the caller has it already. */
-export function weightedData(d: GridData, binning: number, P: number, windowed: boolean, rawPolys?: Float64Array[]): WeightedData {
+export function weightedData(d: GridData, binning: number, P: number, windowed: boolean): WeightedData {
   let d0 = d.k0;
   let end = d.k0 + d.flux.length - 1;
   if (windowed) {
@@ -44,7 +43,7 @@ export function weightedData(d: GridData, binning: number, P: number, windowed: 
     flux[off + i] = wi > 0 ? d.flux[i] : 0;
   }
   // polynomials over the data's own span (the window's padding has w = 0 anyway)
-  const qData = weightedOrthonormalPolys(w.subarray(off, off + d.flux.length), P, rawPolys);
+  const qData = weightedOrthonormalPolys(w.subarray(off, off + d.flux.length), P);
   const q: Float64Array[] = [];
   for (const v of qData) {
     if (off === 0 && v.length === n) q.push(v);

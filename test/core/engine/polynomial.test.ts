@@ -1,5 +1,21 @@
 import { describe, expect, it } from 'vitest';
-import { polyBasis, weightedOrthonormalPolys } from '../../../src/core/engine/polynomial';
+import { weightedOrthonormalPolys } from '../../../src/core/engine/polynomial';
+
+/** Legendre P_0..P_(P-1) over n pixels, x = index scaled to [-1, 1] (Bonnet's recursion, common practice): the reference span. */
+function polyBasis(n: number, P: number): Float64Array[] {
+  const out: Float64Array[] = [];
+  for (let a = 0; a < P; a++) {
+    out.push(Float64Array.from({ length: n }, (_, i) => {
+      const x = n > 1 ? (2 * i) / (n - 1) - 1 : 0;
+      let p0 = 1;
+      let p1 = x;
+      if (a === 0) return 1;
+      for (let k = 2; k <= a; k++) [p0, p1] = [p1, ((2 * k - 1) * x * p1 - (k - 1) * p0) / k];
+      return p1;
+    }));
+  }
+  return out;
+}
 import { mulberry32 } from '../../../src/core/sim/prng';
 
 describe('weightedOrthonormalPolys', () => {
@@ -31,5 +47,25 @@ describe('weightedOrthonormalPolys', () => {
     w[50] = 2;
     w[90] = 1;
     expect(weightedOrthonormalPolys(w, 5).length).toBe(3);
+  });
+});
+
+describe('weightedOrthonormalPolys against modified Gram-Schmidt', () => {
+  it('gives the Gram-Schmidt polynomials of 1, x, x^2, ... (unique with positive leading coefficients)', () => {
+    // reference: modified Gram-Schmidt of the Legendre basis (Golub & Van Loan, Matrix Computations, alg. 5.2.6), written plainly
+    const n = 1500;
+    const w = Float64Array.from({ length: n }, (_, i) => (i % 50 < 3 ? 0 : 1 + Math.sin(i / 37) ** 2));
+    const ref: Float64Array[] = [];
+    for (const v of polyBasis(n, 5)) {
+      const u = Float64Array.from(v);
+      for (const q of ref) {
+        const d = u.reduce((s, x, i) => s + w[i] * x * q[i], 0);
+        for (let i = 0; i < n; i++) u[i] -= d * q[i];
+      }
+      const nn = Math.sqrt(u.reduce((s, x, i) => s + w[i] * x * x, 0));
+      ref.push(u.map((x) => x / nn));
+    }
+    const q = weightedOrthonormalPolys(w, 5);
+    for (let a = 0; a < 5; a++) for (let i = 0; i < n; i += 11) expect(Math.abs(q[a][i] - ref[a][i])).toBeLessThan(1e-10);
   });
 });

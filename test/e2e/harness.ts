@@ -259,3 +259,16 @@ export async function progressCounts(page: Page): Promise<{ done: number; failed
 export function cspOf(page: Page): Promise<string | null> {
   return page.evaluate(() => document.querySelector('meta[http-equiv="Content-Security-Policy"]')?.getAttribute('content') ?? null);
 }
+
+/** The review panel's title (the spectrum shown). */
+export const reviewTitle = (page: Page) => page.getByTestId('review-title').textContent();
+
+/** Wait until the review panel shows another spectrum than `before`, with its solution. */
+export async function waitForNewTitle(page: Page, before: string | null): Promise<string> {
+  await page.waitForFunction((b) => {
+    const t = document.querySelector('[data-testid="review-title"]')?.textContent;
+    // The stored fit has arrived once the candidates are listed (keys 1-9 act on them).
+    return !!t && t !== b && !!document.querySelector('[data-testid="solution-z"]') && !!document.querySelector('[data-testid="candidate-row"]');
+  }, before);
+  return (await reviewTitle(page))!;
+}

@@ -30,6 +30,8 @@ import {
   tempDir,
   waitForFitting,
   watchRequests,
+  reviewTitle as title,
+  waitForNewTitle,
 } from './harness';
 
 const DEMO_DIR = join(ROOT, 'sample-spectra');
@@ -58,18 +60,7 @@ function strongLine(t: SampleTruthRow): { id: string; observedA: number } | null
   return usable[0] ?? null;
 }
 
-const title = (page: Page) => page.getByTestId('review-title').textContent();
 const solutionText = async (page: Page) => ((await page.getByTestId('solution').textContent()) ?? '').replace(/\s+/g, ' ');
-
-/** Wait until the review panel shows another spectrum than `before`, with its solution. */
-async function waitForNewTitle(page: Page, before: string | null): Promise<string> {
-  await page.waitForFunction((b) => {
-    const t = document.querySelector('[data-testid="review-title"]')?.textContent;
-    // The stored fit has arrived once the candidates are listed (keys 1-9 act on them).
-    return !!t && t !== b && !!document.querySelector('[data-testid="solution-z"]') && !!document.querySelector('[data-testid="candidate-row"]');
-  }, before);
-  return (await title(page))!;
-}
 
 interface Made {
   objectId: string;

@@ -15,7 +15,7 @@ import { afterAll, beforeAll, describe, expect, it, onTestFailed } from 'vitest'
 import type { BrowserContext, Download, Page } from 'playwright-core';
 import { parseCatalogueCsv } from '../../src/core/table/csv';
 import { demoRowIds } from '../helpers/demoRows';
-import { ROOT, artifactPath, browserAvailable, buildApp, launchBrowser, releaseApp, removeDir, serveDist, tempDir, waitForFitting, watchRequests } from './harness';
+import { ROOT, artifactPath, browserAvailable, buildApp, launchBrowser, releaseApp, removeDir, serveDist, tempDir, waitForFitting, watchRequests, waitForNewTitle } from './harness';
 
 const DEMO_COUNT = demoRowIds(join(ROOT, 'sample-spectra')).length;
 const ARBITER = 'Lead Arbiter';
@@ -49,16 +49,6 @@ async function downloads(page: Page, n: number, action: () => Promise<void>): Pr
   await action();
   await done;
   return got;
-}
-
-const title = (page: Page) => page.getByTestId('review-title').textContent();
-
-async function waitForNewTitle(page: Page, before: string | null): Promise<string> {
-  await page.waitForFunction((b) => {
-    const t = document.querySelector('[data-testid="review-title"]')?.textContent;
-    return !!t && t !== b && !!document.querySelector('[data-testid="solution-z"]') && !!document.querySelector('[data-testid="candidate-row"]');
-  }, before);
-  return (await title(page))!;
 }
 
 /** Same class and |z1 - z2| / (1 + mean z) < 0.003, two rejections agree: the rule as the README states it. */

@@ -1,7 +1,8 @@
 /**
  * The one rule for "a detected feature", shared by the grade, the line
- * table a reviewer sees and line naming's support count (identify.ts): a line of the line table (measureLines.ts) marked
- * detected (S/N >= 3 with a physical width), lines closer than
+ * table a reviewer sees and line naming's support count (identify.ts): a
+ * line of the line table (measureLines.ts) marked detected (S/N >= 3 with a
+ * physical width), lines closer than
  * DISTINCT_FEATURE_KMS counted once (a doublet or blend is one feature).
  */
 import type { LineMeasurement } from '../types';

@@ -102,9 +102,9 @@ describe.skipIf(!browserAvailable)('team review in Chromium: packets, two review
     for (const step of plan) {
       if (step === 'reject') await page.keyboard.press('x');
       else {
-        const autoZ = await page.getByTestId('solution-z').textContent();
+        const automaticZ = await page.getByTestId('solution-z').textContent();
         await page.keyboard.press('2');
-        await expect.poll(() => page.getByTestId('solution-z').textContent()).not.toBe(autoZ);
+        await expect.poll(() => page.getByTestId('solution-z').textContent()).not.toBe(automaticZ);
         await page.keyboard.press('a');
       }
       current = await waitForNewTitle(page, current); // no name is asked: the packet said who reviews
